@@ -27,12 +27,21 @@ type Inverter[P any] interface {
 	Inverse(p P, data *Frame) (*Frame, error)
 }
 
-// Cell is one value of a row: Num for a numeric column (NaN when missing),
-// Str for a categorical one ("" when missing).
+// Cell is one value of a row: Num for a numeric column (NaN when missing);
+// Str and Code for a categorical one. Str is the level ("" when missing).
+// Code is the level's index in the Levels of the schema that lays out the
+// row, [MissingCode] when missing, or [UnseenCode] when Str is not among
+// those levels; kernels may use Code to avoid looking strings up, and a
+// kernel that writes a categorical cell sets both.
 type Cell struct {
-	Num float64
-	Str string
+	Num  float64
+	Str  string
+	Code int32
 }
+
+// UnseenCode is the Code of a categorical [Cell] whose level the layout
+// schema does not list, such as a level first met in serving.
+const UnseenCode int32 = -2
 
 // RowFunc applies a fitted step to one row. src is laid out by the step's
 // input schema and dst by its output schema, both known when the function
