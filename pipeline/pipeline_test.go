@@ -313,3 +313,41 @@ func TestFitErrorNamesStep(t *testing.T) {
 	require.EqualError(t, err, `pipeline: fitting step 0 (pipetest.center): tabprep.frame: column "weight": not in frame; it has ["pet_age" "species"]`)
 	require.Panics(t, func() { pipeline.New(nil) })
 }
+
+func (c center) RowKernel(p centerParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	pos := in.Index(c.Column)
+	if pos < 0 {
+		return nil, tabprep.Schema{}, errors.New("no column")
+	}
+	m := float64(p.Mean)
+	return func(dst, src []tabprep.Cell) error {
+		copy(dst, src)
+		dst[pos].Num = src[pos].Num - m
+		return nil
+	}, in, nil
+}
+
+func (f flag) RowKernel(p flagParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	pos := in.Index(f.Column)
+	code := int32(slicesIndex(in.Columns[pos].Levels, p.Level))
+	out := tabprep.Schema{Columns: append(append([]tabprep.Field(nil), in.Columns...),
+		tabprep.Field{Name: f.Column + "_is_" + p.Level, Kind: tabprep.Numeric})}
+	n := len(in.Columns)
+	return func(dst, src []tabprep.Cell) error {
+		copy(dst, src)
+		dst[n] = tabprep.Cell{}
+		if src[pos].Code == code {
+			dst[n].Num = 1
+		}
+		return nil
+	}, out, nil
+}
+
+func slicesIndex(s []string, v string) int {
+	for i, x := range s {
+		if x == v {
+			return i
+		}
+	}
+	return -1
+}

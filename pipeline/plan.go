@@ -1,0 +1,175 @@
+package pipeline
+
+import (
+	"cmp"
+	"fmt"
+	"slices"
+	"sync"
+
+	"github.com/tabprep/tabprep"
+)
+
+// Plan is a fitted pipeline compiled for one row at a time, for serving: it
+// reads an input row laid out by the input schema (values by column
+// position) and writes the output row into a buffer the caller owns.
+//
+// Apply does not allocate, looks up no column name and uses no reflection;
+// its output is bit-identical to [Fitted.Transform] of the same row. A Plan
+// is safe for concurrent use by many goroutines.
+type Plan struct {
+	in         tabprep.Schema
+	out        tabprep.Schema
+	funcs      []tabprep.RowFunc
+	widths     []int          // width of the layout each step writes
+	width      int            // the widest layout, for scratch rows
+	cats       []int          // positions of categorical input columns
+	entry      []levelTable   // per input column; empty for numeric ones
+	fields     map[string]int // input column name → position, for the helpers
+	numericOut bool
+	scratch    sync.Pool // *rowScratch
+	structs    sync.Map  // reflect.Type → []int, for FromStruct
+}
+
+// levelTable maps a level string to its code by binary search over the
+// sorted levels, which costs about what a hand-written switch does.
+type levelTable struct {
+	sorted []string
+	codes  []int32
+}
+
+func newLevelTable(levels []string) levelTable {
+	idx := make([]int, len(levels))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortFunc(idx, func(a, b int) int { return cmp.Compare(levels[a], levels[b]) })
+	t := levelTable{sorted: make([]string, len(levels)), codes: make([]int32, len(levels))}
+	for i, j := range idx {
+		t.sorted[i], t.codes[i] = levels[j], int32(j)
+	}
+	return t
+}
+
+func (t *levelTable) code(s string) int32 {
+	if s == "" {
+		return tabprep.MissingCode
+	}
+	if i, ok := slices.BinarySearch(t.sorted, s); ok {
+		return t.codes[i]
+	}
+	return tabprep.UnseenCode
+}
+
+type rowScratch struct{ a, b, out []tabprep.Cell }
+
+// Compile returns the row plan of f. Every step must have a row kernel; a
+// step that needs other rows to act on one (row-order imputation, row
+// dropping) is refused with an error that names it.
+func (f *Fitted) Compile() (*Plan, error) {
+	p := &Plan{in: cloneSchema(f.input), entry: make([]levelTable, len(f.input.Columns)), fields: map[string]int{}}
+	for i, c := range f.input.Columns {
+		p.fields[c.Name] = i
+		if c.Kind == tabprep.Categorical {
+			p.cats = append(p.cats, i)
+			p.entry[i] = newLevelTable(c.Levels)
+		}
+	}
+	layout := p.in
+	p.width = len(layout.Columns)
+	for i, s := range f.steps {
+		fn, out, err := s.RowKernel(layout)
+		if err != nil {
+			return nil, fmt.Errorf("pipeline: compile: step %d (%s) cannot act on one row: %w; transform such data in batches with Fitted.Transform", i, s.Kind(), err)
+		}
+		p.funcs = append(p.funcs, fn)
+		p.widths = append(p.widths, len(out.Columns))
+		layout = out
+		p.width = max(p.width, len(layout.Columns))
+	}
+	if !slices.Equal(layout.Names(), f.output.Names()) {
+		return nil, fmt.Errorf("pipeline: compile: row kernels lay out %v but the batch transform gives %v; a step's row kernel disagrees with its Transform", layout.Names(), f.output.Names())
+	}
+	p.out = layout
+	p.numericOut = true
+	for _, c := range layout.Columns {
+		p.numericOut = p.numericOut && c.Kind == tabprep.Numeric
+	}
+	p.scratch.New = func() any {
+		return &rowScratch{
+			a:   make([]tabprep.Cell, p.width),
+			b:   make([]tabprep.Cell, p.width),
+			out: make([]tabprep.Cell, len(p.out.Columns)),
+		}
+	}
+	return p, nil
+}
+
+// Input returns the layout of the rows Apply reads.
+func (p *Plan) Input() tabprep.Schema { return cloneSchema(p.in) }
+
+// Output returns the layout of the rows Apply writes.
+func (p *Plan) Output() tabprep.Schema { return cloneSchema(p.out) }
+
+// InputWidth returns the number of cells of an input row.
+func (p *Plan) InputWidth() int { return len(p.in.Columns) }
+
+// OutputWidth returns the number of cells of an output row.
+func (p *Plan) OutputWidth() int { return len(p.out.Columns) }
+
+// Apply transforms one row. src holds one cell per input column, Num for a
+// numeric column and Str for a categorical one (the Code fields of src are
+// ignored and left alone); dst receives one cell per output column.
+func (p *Plan) Apply(dst, src []tabprep.Cell) error {
+	if len(src) != len(p.in.Columns) || len(dst) != len(p.out.Columns) {
+		return fmt.Errorf("pipeline: plan: row of %d cells into %d; the plan reads %d and writes %d",
+			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
+	}
+	s := p.scratch.Get().(*rowScratch)
+	err := p.apply(s, dst, src)
+	p.scratch.Put(s)
+	return err
+}
+
+func (p *Plan) apply(s *rowScratch, dst, src []tabprep.Cell) error {
+	cur := s.a[:len(src)]
+	copy(cur, src)
+	for _, i := range p.cats {
+		cur[i].Code = p.entry[i].code(cur[i].Str)
+	}
+	spare := s.b
+	for i, fn := range p.funcs {
+		out := dst
+		if i < len(p.funcs)-1 {
+			out = spare[:p.widths[i]]
+		}
+		if err := fn(out, cur); err != nil {
+			return err
+		}
+		spare, cur = cur[:cap(cur)], out
+	}
+	if len(p.funcs) == 0 {
+		copy(dst, cur)
+	}
+	return nil
+}
+
+// ApplyFloats is [Plan.Apply] for a pipeline whose output columns are all
+// numeric, as a model's input is: it writes the output values into dst.
+func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
+	if !p.numericOut {
+		return fmt.Errorf("pipeline: plan: the output has categorical columns; use Apply, or encode them in the pipeline")
+	}
+	if len(src) != len(p.in.Columns) || len(dst) != len(p.out.Columns) {
+		return fmt.Errorf("pipeline: plan: row of %d cells into %d values; the plan reads %d and writes %d",
+			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
+	}
+	s := p.scratch.Get().(*rowScratch)
+	defer p.scratch.Put(s)
+	if err := p.apply(s, s.out, src); err != nil {
+		return err
+	}
+	for i, c := range s.out {
+		dst[i] = c.Num
+	}
+	return nil
+}
