@@ -60,7 +60,10 @@ func (t *levelTable) code(s string) int32 {
 	return tabprep.UnseenCode
 }
 
-type rowScratch struct{ a, b, out []tabprep.Cell }
+type rowScratch struct {
+	a, b, out, src []tabprep.Cell
+	cols           []*tabprep.Column
+}
 
 // Compile returns the row plan of f. Every step must have a row kernel; a
 // step that needs other rows to act on one (row-order imputation, row
@@ -99,6 +102,7 @@ func (f *Fitted) Compile() (*Plan, error) {
 			a:   make([]tabprep.Cell, p.width),
 			b:   make([]tabprep.Cell, p.width),
 			out: make([]tabprep.Cell, len(p.out.Columns)),
+			src: make([]tabprep.Cell, len(p.in.Columns)),
 		}
 	}
 	return p, nil
@@ -170,6 +174,55 @@ func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
 	}
 	for i, c := range s.out {
 		dst[i] = c.Num
+	}
+	return nil
+}
+
+// TransformInto transforms every row of data into dst, row after row:
+// row i's output values are dst[i*w : (i+1)*w] with w = [Plan.OutputWidth].
+// The output must be all numeric, and dst must have exactly
+// data.NumRows()·w values. data needs the input columns (others are
+// ignored). Beyond dst, which the caller owns and may reuse, a call
+// allocates nothing in the steady state, so batch scoring can run without
+// garbage.
+func (p *Plan) TransformInto(dst []float64, data *tabprep.Frame) error {
+	if !p.numericOut {
+		return fmt.Errorf("pipeline: plan: the output has categorical columns; use Apply, or encode them in the pipeline")
+	}
+	w := len(p.out.Columns)
+	if len(dst) != data.NumRows()*w {
+		return fmt.Errorf("pipeline: plan: dst has %d values; %d rows of %d output columns need %d", len(dst), data.NumRows(), w, data.NumRows()*w)
+	}
+	s := p.scratch.Get().(*rowScratch)
+	defer p.scratch.Put(s)
+	if cap(s.cols) < len(p.in.Columns) {
+		s.cols = make([]*tabprep.Column, len(p.in.Columns))
+	}
+	cols := s.cols[:len(p.in.Columns)]
+	for i, want := range p.in.Columns {
+		j := data.Index(want.Name)
+		if j < 0 || data.Col(j).Kind() != want.Kind {
+			_, err := p.in.Conform("pipeline.plan", data)
+			return err
+		}
+		cols[i] = data.Col(j)
+	}
+	src := s.src[:len(p.in.Columns)]
+	for r := 0; r < data.NumRows(); r++ {
+		for i, c := range cols {
+			if p.in.Columns[i].Kind == tabprep.Numeric {
+				src[i].Num = c.Float64s()[r]
+			} else {
+				src[i].Str = c.Level(r)
+			}
+		}
+		if err := p.apply(s, s.out, src); err != nil {
+			return fmt.Errorf("pipeline: plan: row %d: %w", r, err)
+		}
+		row := dst[r*w : (r+1)*w]
+		for i, c := range s.out {
+			row[i] = c.Num
+		}
 	}
 	return nil
 }

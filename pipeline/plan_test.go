@@ -176,3 +176,39 @@ func TestPlanConcurrent(t *testing.T) {
 		t.Fatal(msg)
 	}
 }
+
+func TestTransformInto(t *testing.T) {
+	rng := rand.New(rand.NewPCG(29, 30))
+	p := pipeline.New(pipeline.Use(flag{Column: "species"}), pipeline.Use(center{Column: "pet_age"}))
+	fp, err := p.Fit(randomFrame(rng, 100))
+	require.NoError(t, err)
+	// Drop the categorical column so the output is all numeric.
+	fp2, err := pipeline.New(pipeline.Use(center{Column: "pet_age"})).Fit(tabprep.MustFrame(tabprep.NewNumeric("pet_age", []float64{1, 2})))
+	require.NoError(t, err)
+	plan, err := fp2.Compile()
+	require.NoError(t, err)
+	data := randomFrame(rng, 40)
+	dst := make([]float64, 40*plan.OutputWidth())
+	require.NoError(t, plan.TransformInto(dst, data))
+	batch, err := fp2.Transform(data)
+	require.NoError(t, err)
+	for i := 0; i < 40; i++ {
+		requireSameCell(t, batch.Col(0), i, tabprep.Cell{Num: dst[i]})
+	}
+	if !raceEnabled {
+		allocs := testing.AllocsPerRun(100, func() {
+			if err := plan.TransformInto(dst, data); err != nil {
+				t.Fatal(err)
+			}
+		})
+		require.Zero(t, allocs)
+	}
+	require.Error(t, plan.TransformInto(dst[:3], data))
+	plan1, err := fp.Compile()
+	require.NoError(t, err)
+	require.Error(t, plan1.TransformInto(make([]float64, 40*plan1.OutputWidth()), data), "categorical output")
+	_, err = fp2.Compile()
+	require.NoError(t, err)
+	lacking := tabprep.MustFrame(tabprep.NewNumeric("x", make([]float64, 40)))
+	require.ErrorIs(t, plan.TransformInto(dst, lacking), tabprep.ErrSchema)
+}
