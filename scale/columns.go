@@ -1,0 +1,269 @@
+package scale
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"github.com/tabprep/tabprep"
+)
+
+// DomainRule says what a transform does with a value outside its domain.
+type DomainRule string
+
+const (
+	// DomainError (the zero value) makes a value outside the domain an
+	// error naming the column, the row and the value.
+	DomainError DomainRule = ""
+	// DomainMissing makes a value outside the domain a missing cell.
+	DomainMissing DomainRule = "missing"
+)
+
+func (r DomainRule) check(op string) error {
+	if r != DomainError && r != DomainMissing {
+		return tabprep.Errorf(op, tabprep.ErrOption, "", "OutOfDomain %q unknown; use scale.DomainError or scale.DomainMissing", string(r))
+	}
+	return nil
+}
+
+// fitColumns checks that train holds train rows only, resolves sel to its
+// numeric columns and refuses a column with no value to learn from.
+func fitColumns(op string, train *tabprep.Frame, sel tabprep.Selection) ([]string, []*tabprep.Column, error) {
+	if err := tabprep.RequireTrain(op, train); err != nil {
+		return nil, nil, err
+	}
+	names, err := sel.Resolve(op, train, tabprep.Numeric)
+	if err != nil {
+		return nil, nil, err
+	}
+	cols := make([]*tabprep.Column, len(names))
+	for j, n := range names {
+		c, err := train.Column(n)
+		if err != nil {
+			return nil, nil, err
+		}
+		if c.MissingCount() == c.Len() {
+			return nil, nil, allMissing(op, n)
+		}
+		cols[j] = c
+	}
+	return names, cols, nil
+}
+
+func allMissing(op, column string) *tabprep.Error {
+	return tabprep.Errorf(op, tabprep.ErrAllMissing, column, "every train value is missing; fill the column first or leave it out of Columns")
+}
+
+// dataColumns returns the named numeric columns of data, for a transform or
+// an inverse.
+func dataColumns(op string, data *tabprep.Frame, names []string) ([]*tabprep.Column, error) {
+	if data == nil {
+		return nil, tabprep.Errorf(op, tabprep.ErrSchema, "", "nil frame")
+	}
+	cols := make([]*tabprep.Column, len(names))
+	for j, n := range names {
+		c, err := data.Column(n)
+		if err != nil {
+			return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, n, "fitted on this column, which the data lacks; pass a frame with every fitted column")
+		}
+		if c.Kind() != tabprep.Numeric {
+			return nil, tabprep.Errorf(op, tabprep.ErrKind, n, "is %v; the step was fitted on a numeric column", c.Kind())
+		}
+		cols[j] = c
+	}
+	return cols, nil
+}
+
+// checkWidths reports parameters whose per-column lists do not match the
+// column list, as a decoded but hand-edited state could hold.
+func checkWidths(op string, columns []string, lists ...int) error {
+	for _, n := range lists {
+		if n != len(columns) {
+			return tabprep.Errorf(op, tabprep.ErrOption, "", "parameters list %d values for %d columns; refit the step", n, len(columns))
+		}
+	}
+	return nil
+}
+
+// affine is the map y = (x − center)/scale + offset, then clipped to
+// [lo, hi] if clip is set. Every linear rescaling in the package is one.
+// Dividing by scale, rather than multiplying by its reciprocal, keeps
+// results such as −986/10³ = −0.986 correctly rounded.
+type affine struct {
+	center, scale, offset float64
+	clip                  bool
+	lo, hi                float64
+}
+
+func (a affine) at(x float64) float64 {
+	y := (x-a.center)/a.scale + a.offset
+	if a.clip {
+		y = min(max(y, a.lo), a.hi)
+	}
+	return y
+}
+
+func (a affine) inverse(y float64) float64 { return (y-a.offset)*a.scale + a.center }
+
+// apply writes a.at(src[i]) to dst[i]: the hot loop of every linear step,
+// kept free of calls so that it runs at memory speed.
+func (a affine) apply(dst, src []float64) {
+	dst = dst[:len(src)]
+	c, s, o := a.center, a.scale, a.offset
+	if a.clip {
+		for i, x := range src {
+			dst[i] = min(max((x-c)/s+o, a.lo), a.hi)
+		}
+		return
+	}
+	if o == 0 {
+		for i, x := range src {
+			dst[i] = (x - c) / s
+		}
+		return
+	}
+	for i, x := range src {
+		dst[i] = (x-c)/s + o
+	}
+}
+
+// divisor returns spread, or 1 when the spread is zero (a constant column)
+// or not finite, so that no rescaling divides by zero.
+func divisor(spread float64) float64 {
+	if spread == 0 || math.IsNaN(spread) || math.IsInf(spread, 0) {
+		return 1
+	}
+	return spread
+}
+
+// mapper applies one fitted function per column to frames and single rows.
+// A function returns NaN for NaN; for any other value, a NaN result, or an
+// infinite result from a finite value, means the value is outside the
+// function's domain.
+type mapper struct {
+	op      string
+	names   []string
+	funcs   []func(float64) float64
+	linear  []affine // when set, used instead of funcs for whole columns
+	domain  string   // the accepted values, for errors
+	lenient bool     // out-of-domain values become missing
+}
+
+func outside(x, y float64) bool {
+	return x == x && (y != y || (math.IsInf(y, 0) && !math.IsInf(x, 0)))
+}
+
+func (m *mapper) domainError(j int, x float64) *tabprep.Error {
+	return tabprep.Errorf(m.op, tabprep.ErrValue, m.names[j],
+		"value %v is outside the domain (%s); correct or remove it, or set OutOfDomain to scale.DomainMissing to make such cells missing", x, m.domain)
+}
+
+// column maps src through function j into a new slice.
+func (m *mapper) column(j int, src []float64) ([]float64, error) {
+	dst := make([]float64, len(src))
+	if m.linear != nil {
+		m.linear[j].apply(dst, src)
+		return dst, nil
+	}
+	f := m.funcs[j]
+	for i, x := range src {
+		y := f(x)
+		if outside(x, y) {
+			if !m.lenient {
+				return nil, m.domainError(j, x).AtRow(i)
+			}
+			y = math.NaN()
+		}
+		dst[i] = y
+	}
+	return dst, nil
+}
+
+// frame returns data with each mapped column replaced.
+func (m *mapper) frame(data *tabprep.Frame) (*tabprep.Frame, error) {
+	cols, err := dataColumns(m.op, data, m.names)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]*tabprep.Column, len(cols))
+	for j, c := range cols {
+		vals, err := m.column(j, c.Float64s())
+		if err != nil {
+			return nil, err
+		}
+		out[j] = tabprep.AdoptNumeric(m.names[j], vals)
+	}
+	return data.With(out...)
+}
+
+// check maps every column of data and discards the result: a fit uses it
+// to report train values outside the domain before any parameter is
+// returned.
+func (m *mapper) check(data *tabprep.Frame) error {
+	_, err := m.frame(data)
+	return err
+}
+
+// rowKernel returns a row function that copies src to dst by position and
+// maps the fitted columns, for rows laid out by in.
+func (m *mapper) rowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	pos := make([]int, len(m.names))
+	for j, n := range m.names {
+		i := in.Index(n)
+		if i < 0 {
+			return nil, tabprep.Schema{}, tabprep.Errorf(m.op, tabprep.ErrSchema, n, "fitted on this column, which the row layout lacks")
+		}
+		if in.Columns[i].Kind != tabprep.Numeric {
+			return nil, tabprep.Schema{}, tabprep.Errorf(m.op, tabprep.ErrKind, n, "is %v in the row layout; the step was fitted on a numeric column", in.Columns[i].Kind)
+		}
+		pos[j] = i
+	}
+	funcs := m.funcs
+	if m.linear != nil {
+		funcs = make([]func(float64) float64, len(m.linear))
+		for j, a := range m.linear {
+			funcs[j] = a.at
+		}
+	}
+	width := len(in.Columns)
+	out := tabprep.Schema{Columns: slices.Clone(in.Columns)}
+	for i := range out.Columns {
+		out.Columns[i].Levels = slices.Clone(in.Columns[i].Levels)
+	}
+	mm := *m
+	fn := func(dst, src []tabprep.Cell) error {
+		if len(src) != width || len(dst) != width {
+			return tabprep.Errorf(mm.op, tabprep.ErrLength, "", "row of %d cells into %d; the layout has %d", len(src), len(dst), width)
+		}
+		copy(dst, src)
+		for j, p := range pos {
+			x := src[p].Num
+			y := funcs[j](x)
+			if outside(x, y) {
+				if !mm.lenient {
+					return mm.domainError(j, x)
+				}
+				y = math.NaN()
+			}
+			dst[p].Num = y
+		}
+		return nil
+	}
+	return fn, out, nil
+}
+
+// linearMapper returns the mapper of one affine map per column.
+func linearMapper(op string, names []string, maps []affine) *mapper {
+	return &mapper{op: op, names: names, linear: maps}
+}
+
+// inverseMapper returns the mapper of the inverses of maps.
+func inverseMapper(op string, names []string, maps []affine) *mapper {
+	funcs := make([]func(float64) float64, len(maps))
+	for j, a := range maps {
+		funcs[j] = a.inverse
+	}
+	return &mapper{op: op, names: names, funcs: funcs, domain: "any finite number"}
+}
+
+func opName(kind, what string) string { return fmt.Sprintf("%s %s", kind, what) }
