@@ -142,3 +142,18 @@ func requireNoGaps(t *testing.T, f *tabprep.Frame, names ...string) {
 		require.Zero(t, column(t, f, n).MissingCount(), "gaps left in %s", n)
 	}
 }
+
+// gappy returns n values drawn by gen with a share gap of them (never the
+// first) replaced by NaN, and the present values in order.
+func gappy(rng *rand.Rand, n int, gap float64, gen func() float64) (x, present []float64) {
+	x = make([]float64, n)
+	for i := range x {
+		x[i] = gen()
+		if i > 0 && rng.Float64() < gap {
+			x[i] = nan
+			continue
+		}
+		present = append(present, x[i])
+	}
+	return x, present
+}

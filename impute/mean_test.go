@@ -105,17 +105,7 @@ func TestMeanAgainstGonum(t *testing.T) {
 	// the present values of random columns with gaps.
 	rng := rand.New(rand.NewPCG(5, 6))
 	for range 50 {
-		n := 1 + rng.IntN(2000)
-		x := make([]float64, n)
-		var present []float64
-		for i := range x {
-			x[i] = 1e3 + rng.NormFloat64()*1e2
-			if i > 0 && rng.Float64() < 0.2 {
-				x[i] = nan
-				continue
-			}
-			present = append(present, x[i])
-		}
+		x, present := gappy(rng, 1+rng.IntN(2000), 0.2, func() float64 { return 1e3 + rng.NormFloat64()*1e2 })
 		p, err := impute.Mean{}.Fit(tabprep.MustFrame(tabprep.NewNumeric("distance_km", x)))
 		require.NoError(t, err)
 		want := stat.Mean(present, nil)
