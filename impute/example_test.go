@@ -118,3 +118,81 @@ func ExampleFill() {
 	// distance_home: max by pattern distance_* = 12
 	// reminder: constant by name = "none"
 }
+
+func ExampleCarryForward() {
+	train := tabprep.MustFrame(tabprep.NewNumeric("prior_no_shows", []float64{0, 1, 3}))
+	step := impute.CarryForward{}
+	p, _ := step.Fit(train) // learns only the edge fill: the train median, 1
+	batch := tabprep.MustFrame(tabprep.NewNumeric("prior_no_shows", []float64{nan, 2, nan, 4}))
+	out, _ := step.Transform(p, batch)
+	fmt.Println(out.Col(0).Float64s())
+	// Output:
+	// [1 2 2 4]
+}
+
+func ExampleCarryBackward() {
+	train := tabprep.MustFrame(tabprep.NewNumeric("prior_no_shows", []float64{0, 1, 3}))
+	step := impute.CarryBackward{Edge: impute.Rule{Stat: impute.StatMax}}
+	p, _ := step.Fit(train)
+	batch := tabprep.MustFrame(tabprep.NewNumeric("prior_no_shows", []float64{nan, 2, nan, 4, nan}))
+	out, _ := step.Transform(p, batch)
+	fmt.Println(out.Col(0).Float64s())
+	// Output:
+	// [2 2 4 4 3]
+}
+
+func ExampleInterpolate() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("booked_on", []float64{0, 1, 2}),
+		tabprep.NewNumeric("pet_age", []float64{1, 2, 3}),
+	)
+	step := impute.Interpolate{By: "booked_on"}
+	p, _ := step.Fit(train)
+	batch := tabprep.MustFrame(
+		tabprep.NewNumeric("booked_on", []float64{0, 1, 4, 5}),
+		tabprep.NewNumeric("pet_age", []float64{nan, 2, nan, 7}),
+	)
+	out, _ := step.Transform(p, batch)
+	fmt.Println(out.Col(1).Float64s())
+	// Output:
+	// [2 2 5.75 7]
+}
+
+func ExampleDropRows() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("pet_age", []float64{1, nan, 3}),
+		tabprep.NewCategorical("species", []string{"dog", "cat", ""}),
+	)
+	step := impute.DropRows{}
+	p, _ := step.Fit(train)
+	out, report, _ := step.Drop(p, train)
+	fmt.Printf("kept %d of %d rows, dropped %d; gaps per column %v\n", out.NumRows(), report.Rows, report.Dropped, report.Gaps)
+	// Output:
+	// kept 1 of 3 rows, dropped 2; gaps per column [1 1]
+}
+
+func ExampleIndicators() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("distance_km", []float64{2, nan, 5}),
+		tabprep.NewNumeric("days_ahead", []float64{1, 3, 9}),
+	)
+	step := impute.Indicators{}
+	p, _ := step.Fit(train)
+	out, _ := step.Transform(p, train)
+	fmt.Println(out.Names(), out.Col(2).Float64s())
+	// Output:
+	// [distance_km days_ahead distance_km_missing] [0 1 0]
+}
+
+func ExampleDropSparse() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("distance_km", []float64{2, nan, 5, 1}),
+		tabprep.NewCategorical("reminder", []string{"", "", "sms", ""}),
+	)
+	step := impute.DropSparse{MaxShare: 0.5}
+	p, _ := step.Fit(train)
+	out, _ := step.Transform(p, train)
+	fmt.Println(p.Dropped, out.Names())
+	// Output:
+	// [reminder] [distance_km]
+}

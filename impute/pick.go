@@ -63,10 +63,15 @@ func columnsOf(f *tabprep.Frame, names []string) []*tabprep.Column {
 func inputColumn(op string, data *tabprep.Frame, name string, kind tabprep.Kind) (*tabprep.Column, error) {
 	c, err := data.Column(name)
 	if err != nil {
-		return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the data lacks it; pass data with the train columns")
+		return nil, lacksColumn(op, name)
 	}
 	if c.Kind() != kind {
 		return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "is %v, but was %v at fit time", c.Kind(), kind)
 	}
 	return c, nil
+}
+
+// lacksColumn is the error of a transform whose data lacks a fitted column.
+func lacksColumn(op, name string) error {
+	return tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the data lacks it; pass data with the train columns")
 }
