@@ -1,0 +1,77 @@
+package impute
+
+import (
+	"path"
+
+	"github.com/tabprep/tabprep"
+)
+
+// pickColumns resolves sel against f over columns of any kind, in frame
+// order. The zero Selection chooses every column. A named column must
+// exist; a pattern must be well formed; something must be chosen.
+func pickColumns(op string, f *tabprep.Frame, sel tabprep.Selection) ([]string, error) {
+	want := make(map[string]bool, len(sel.Names))
+	for _, n := range sel.Names {
+		if !f.Has(n) {
+			return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, n, "selected by name but not in the frame; check the spelling against the frame's columns")
+		}
+		want[n] = true
+	}
+	if sel.Pattern != "" {
+		if _, err := path.Match(sel.Pattern, ""); err != nil {
+			return nil, tabprep.Errorf(op, tabprep.ErrOption, "", "bad column pattern %q: %v", sel.Pattern, err)
+		}
+	}
+	all := len(sel.Names) == 0 && sel.Pattern == ""
+	var out []string
+	for _, name := range f.Names() {
+		ok := all || want[name]
+		if !ok && sel.Pattern != "" {
+			ok, _ = path.Match(sel.Pattern, name)
+		}
+		if ok {
+			out = append(out, name)
+		}
+	}
+	if len(out) == 0 {
+		return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, "", "selection chooses no column (pattern %q); name the columns or fix the pattern", sel.Pattern)
+	}
+	return out, nil
+}
+
+// numericColumns resolves sel over the numeric columns of f: the zero
+// Selection chooses every numeric column.
+func numericColumns(op string, f *tabprep.Frame, sel tabprep.Selection) ([]*tabprep.Column, error) {
+	names, err := sel.Resolve(op, f, tabprep.Numeric)
+	if err != nil {
+		return nil, err
+	}
+	return columnsOf(f, names), nil
+}
+
+// columnsOf returns the named columns of f, which are known to exist.
+func columnsOf(f *tabprep.Frame, names []string) []*tabprep.Column {
+	out := make([]*tabprep.Column, len(names))
+	for i, n := range names {
+		out[i] = f.Col(f.Index(n))
+	}
+	return out
+}
+
+// inputColumn returns the named column of data for a transform, checking
+// that it still has the kind it had at fit time.
+func inputColumn(op string, data *tabprep.Frame, name string, kind tabprep.Kind) (*tabprep.Column, error) {
+	c, err := data.Column(name)
+	if err != nil {
+		return nil, lacksColumn(op, name)
+	}
+	if c.Kind() != kind {
+		return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "is %v, but was %v at fit time", c.Kind(), kind)
+	}
+	return c, nil
+}
+
+// lacksColumn is the error of a transform whose data lacks a fitted column.
+func lacksColumn(op, name string) error {
+	return tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the data lacks it; pass data with the train columns")
+}
