@@ -81,3 +81,27 @@ func ExampleOrdinal() {
 	// Output:
 	// visit_type            2     -1    NaN      0
 }
+
+func ExampleTarget() {
+	train := visits()
+	step := encode.Target{Columns: tabprep.Names("visit_type"), Target: "no_show", K: 1, F: 1, Folds: 3, Seed: 42}
+	// FitOutOfFold is what a pipeline calls: the training rows get values
+	// from the folds they are not in; the parameters hold full-train values.
+	p, oof, err := step.FitOutOfFold(train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("prior %.4f\n", p.Prior[0])
+	for i, l := range p.Columns[0].Levels {
+		fmt.Printf("%-8s n=%d S=%.4f\n", l, p.Columns[0].Counts[i], p.Columns[0].Values[i])
+	}
+	c, _ := oof.Column("visit_type")
+	fmt.Printf("out of fold %.4f\n", c.Float64s())
+	// Output:
+	// prior 0.3333
+	// checkup  n=3 S=0.3333
+	// surgery  n=1 S=0.1667
+	// vaccine  n=2 S=0.4552
+	// out of fold [0.5000 0.1250 0.2500 0.1250 0.7500 0.1250]
+}
