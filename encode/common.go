@@ -1,0 +1,259 @@
+package encode
+
+import (
+	"fmt"
+	"slices"
+
+	"github.com/tabprep/tabprep"
+)
+
+// Sentinel errors of this package. Each wraps the root sentinel named in
+// its comment, so errors.Is works with either.
+var (
+	// ErrUnseen: a level not seen in training, under a policy that makes it
+	// an error. Wraps [tabprep.ErrValue].
+	ErrUnseen = fmt.Errorf("encode: level not seen in training: %w", tabprep.ErrValue)
+	// ErrTooManyLevels: a column has more levels than the cap allows. Wraps
+	// [tabprep.ErrOption].
+	ErrTooManyLevels = fmt.Errorf("encode: too many levels: %w", tabprep.ErrOption)
+	// ErrAmbiguous: a number format that reads one way under the chosen
+	// separators and another way under the swapped ones. Wraps
+	// [tabprep.ErrValue].
+	ErrAmbiguous = fmt.Errorf("encode: ambiguous number format: %w", tabprep.ErrValue)
+	// ErrBadCell: a cell that does not parse, under a policy that makes it an
+	// error. Wraps [tabprep.ErrValue].
+	ErrBadCell = fmt.Errorf("encode: cell does not parse: %w", tabprep.ErrValue)
+)
+
+// levelStats are the train counts of the used levels of a categorical
+// column, levels sorted in byte order so that fitted parameters do not
+// depend on row order.
+type levelStats struct {
+	levels  []string
+	counts  []int
+	missing int
+	rows    int
+}
+
+func countLevels(c *tabprep.Column) levelStats {
+	per := make([]int, len(c.Levels()))
+	st := levelStats{rows: c.Len()}
+	for _, k := range c.Codes() {
+		if k == tabprep.MissingCode {
+			st.missing++
+			continue
+		}
+		per[k]++
+	}
+	type lc struct {
+		l string
+		n int
+	}
+	var used []lc
+	for k, n := range per {
+		if n > 0 {
+			used = append(used, lc{c.Levels()[k], n})
+		}
+	}
+	slices.SortFunc(used, func(a, b lc) int {
+		switch {
+		case a.l < b.l:
+			return -1
+		case a.l > b.l:
+			return 1
+		}
+		return 0
+	})
+	st.levels = make([]string, len(used))
+	st.counts = make([]int, len(used))
+	for i, u := range used {
+		st.levels[i], st.counts[i] = u.l, u.n
+	}
+	return st
+}
+
+// indexOf maps each level to its position.
+func indexOf(levels []string) map[string]int32 {
+	m := make(map[string]int32, len(levels))
+	for i, l := range levels {
+		m[l] = int32(i)
+	}
+	return m
+}
+
+// remap returns, for each code of c, the position of its level in index, or
+// -1 for a level index does not hold. The lookup is per level, not per row.
+func remap(c *tabprep.Column, index map[string]int32) []int32 {
+	out := make([]int32, len(c.Levels()))
+	for k, l := range c.Levels() {
+		if i, ok := index[l]; ok {
+			out[k] = i
+		} else {
+			out[k] = -1
+		}
+	}
+	return out
+}
+
+// firstRowOf returns the first row whose code is k, for error messages.
+func firstRowOf(c *tabprep.Column, k int32) int {
+	return slices.Index(c.Codes(), k)
+}
+
+// columnOf returns the named column of data, which must have kind k: the
+// kind the step was fitted on.
+func columnOf(op string, data *tabprep.Frame, name string, k tabprep.Kind) (*tabprep.Column, error) {
+	c, err := data.Column(name)
+	if err != nil {
+		return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, name, "fitted on this column, but the data lacks it; it has %q", data.Names())
+	}
+	if c.Kind() != k {
+		return nil, tabprep.Errorf(op, tabprep.ErrKind, name, "is %v; this step was fitted on it as %v", c.Kind(), k)
+	}
+	return c, nil
+}
+
+// resolve starts a Fit: it refuses holdout rows, resolves the selection to
+// columns of kind k, and checks that every column named in a per-column
+// option (what names it) is selected.
+func resolve[V any](op string, train *tabprep.Frame, sel tabprep.Selection, k tabprep.Kind, what string, perColumn map[string]V) ([]string, error) {
+	if err := tabprep.RequireTrain(op, train); err != nil {
+		return nil, err
+	}
+	names, err := sel.Resolve(op, train, k)
+	if err != nil {
+		return nil, err
+	}
+	for col := range perColumn {
+		if !slices.Contains(names, col) {
+			return nil, tabprep.Errorf(op, tabprep.ErrOption, col, "has %s but is not selected; select it or remove the entry", what)
+		}
+	}
+	return names, nil
+}
+
+// encoded is what a step made of one source column.
+type encoded struct {
+	source string
+	cols   []*tabprep.Column
+}
+
+// inPlace reports whether e replaces its source under the same name.
+func (e encoded) inPlace() bool {
+	return len(e.cols) == 1 && e.cols[0].Name() == e.source
+}
+
+// assemble builds the output frame: a single output named like its source
+// replaces it in place; otherwise the source is dropped and the outputs are
+// appended after the remaining columns, in order. A new name that clashes
+// with a kept column is an error, since replacing it would lose data.
+func assemble(op string, data *tabprep.Frame, outs []encoded) (*tabprep.Frame, error) {
+	var drop []string
+	var cols []*tabprep.Column
+	for _, e := range outs {
+		if !e.inPlace() {
+			drop = append(drop, e.source)
+		}
+		cols = append(cols, e.cols...)
+	}
+	base := data
+	if len(drop) > 0 {
+		var err error
+		if base, err = data.Without(drop...); err != nil {
+			return nil, err
+		}
+	}
+	for _, e := range outs {
+		if e.inPlace() {
+			continue
+		}
+		for _, c := range e.cols {
+			if base.Has(c.Name()) {
+				return nil, tabprep.Errorf(op, tabprep.ErrName, c.Name(),
+					"output of column %q clashes with a column of the data; rename that column", e.source)
+			}
+		}
+	}
+	return base.With(cols...)
+}
+
+// layout is the plan of a row kernel: where each output cell comes from.
+type layout struct {
+	out  tabprep.Schema
+	pass [][2]int // {dst, src} of each column copied through
+	at   []int    // per source: input position
+	to   []int    // per source: first output position
+}
+
+// arrange lays out a row kernel's output the way [assemble] lays out a
+// frame. fields[i] are the output fields of sources[i]; each source must be
+// in `in` with kind want.
+func arrange(op string, in tabprep.Schema, sources []string, want tabprep.Kind, fields [][]tabprep.Field) (layout, error) {
+	var l layout
+	replaced := make(map[string]int, len(sources))
+	dropped := make(map[string]bool, len(sources))
+	l.at = make([]int, len(sources))
+	l.to = make([]int, len(sources))
+	for i, s := range sources {
+		j := in.Index(s)
+		if j < 0 {
+			return l, tabprep.Errorf(op, tabprep.ErrNoColumn, s, "fitted on this column, but the row schema lacks it; it has %q", in.Names())
+		}
+		if in.Columns[j].Kind != want {
+			return l, tabprep.Errorf(op, tabprep.ErrKind, s, "is %v in the row schema, want %v", in.Columns[j].Kind, want)
+		}
+		l.at[i] = j
+		if len(fields[i]) == 1 && fields[i][0].Name == s {
+			replaced[s] = i
+		} else {
+			dropped[s] = true
+		}
+	}
+	for j, f := range in.Columns {
+		if dropped[f.Name] {
+			continue
+		}
+		if i, ok := replaced[f.Name]; ok {
+			l.to[i] = len(l.out.Columns)
+			l.out.Columns = append(l.out.Columns, fields[i][0])
+			continue
+		}
+		l.pass = append(l.pass, [2]int{len(l.out.Columns), j})
+		l.out.Columns = append(l.out.Columns, f)
+	}
+	for i, s := range sources {
+		if !dropped[s] {
+			continue
+		}
+		l.to[i] = len(l.out.Columns)
+		l.out.Columns = append(l.out.Columns, fields[i]...)
+	}
+	if err := l.out.Validate(); err != nil {
+		return l, tabprep.Errorf(op, tabprep.ErrName, "", "output row schema: %v; rename the clashing input column", err)
+	}
+	return l, nil
+}
+
+// copyThrough copies the passed-through cells of a row and checks the row
+// lengths against the layout.
+func (l *layout) copyThrough(op string, dst, src []tabprep.Cell, inLen int) error {
+	if len(src) != inLen || len(dst) != len(l.out.Columns) {
+		return errRowShape(op, len(src), inLen, len(dst), len(l.out.Columns))
+	}
+	for _, p := range l.pass {
+		dst[p[0]] = src[p[1]]
+	}
+	return nil
+}
+
+func errRowShape(op string, src, wantSrc, dst, wantDst int) error {
+	return tabprep.Errorf(op, tabprep.ErrLength, "", "row of %d cells into %d: the kernel reads %d and writes %d; size the buffers by the schemas", src, dst, wantSrc, wantDst)
+}
+
+// checkOption returns an option error unless v is one of allowed.
+func checkOption[T ~string](op, field string, v T, allowed ...T) error {
+	if slices.Contains(allowed, v) {
+		return nil
+	}
+	return tabprep.Errorf(op, tabprep.ErrOption, "", "%s %q: use one of %q", field, v, allowed)
+}

@@ -1,0 +1,107 @@
+package encode_test
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/encode"
+)
+
+func visits() *tabprep.Frame {
+	return tabprep.MustFrame(
+		tabprep.NewCategorical("visit_type", []string{"checkup", "vaccine", "surgery", "checkup", "vaccine", "checkup"}),
+		tabprep.NewCategorical("species", []string{"dog", "cat", "dog", "rabbit", "cat", ""}),
+		tabprep.NewNumeric("no_show", []float64{0, 1, 0, 1, 0, 0}),
+	)
+}
+
+func printFrame(f *tabprep.Frame) {
+	for j := 0; j < f.NumCols(); j++ {
+		c := f.Col(j)
+		fmt.Printf("%-16s", c.Name())
+		for i := 0; i < f.NumRows(); i++ {
+			if c.Kind() == tabprep.Numeric {
+				fmt.Printf(" %6.3g", c.Value(i))
+			} else {
+				fmt.Printf(" %6s", c.Level(i))
+			}
+		}
+		fmt.Println()
+	}
+}
+
+func ExampleOneHot() {
+	step := encode.OneHot{
+		Columns:   tabprep.Names("species"),
+		Reference: map[string]string{"species": "dog"},
+		MinCount:  2, // rabbit is seen once: grouped into species#other
+		Unseen:    encode.UnseenOther,
+		Missing:   encode.MissingColumn,
+	}
+	p, err := step.Fit(visits())
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(p.Outputs())
+	batch := tabprep.MustFrame(tabprep.NewCategorical("species", []string{"cat", "dog", "ferret", ""}))
+	out, err := step.Transform(p, batch)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	printFrame(out)
+	// Output:
+	// [species=cat species#other species#missing]
+	// species=cat           1      0      0      0
+	// species#other         0      0      1      0
+	// species#missing       0      0      0      1
+}
+
+func ExampleOrdinal() {
+	step := encode.Ordinal{
+		Columns:     tabprep.Names("visit_type"),
+		Order:       map[string][]string{"visit_type": {"vaccine", "checkup", "surgery"}},
+		UnseenCode:  encode.Code(-1),
+		MissingCode: encode.Code(math.NaN()),
+	}
+	p, err := step.Fit(visits())
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	batch := tabprep.MustFrame(tabprep.NewCategorical("visit_type", []string{"surgery", "grooming", "", "vaccine"}))
+	out, err := step.Transform(p, batch)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	printFrame(out)
+	// Output:
+	// visit_type            2     -1    NaN      0
+}
+
+func ExampleTarget() {
+	train := visits()
+	step := encode.Target{Columns: tabprep.Names("visit_type"), Target: "no_show", K: 1, F: 1, Folds: 3, Seed: 42}
+	// FitOutOfFold is what a pipeline calls: the training rows get values
+	// from the folds they are not in; the parameters hold full-train values.
+	p, oof, err := step.FitOutOfFold(train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("prior %.4f\n", p.Prior[0])
+	for i, l := range p.Columns[0].Levels {
+		fmt.Printf("%-8s n=%d S=%.4f\n", l, p.Columns[0].Counts[i], p.Columns[0].Values[i])
+	}
+	c, _ := oof.Column("visit_type")
+	fmt.Printf("out of fold %.4f\n", c.Float64s())
+	// Output:
+	// prior 0.3333
+	// checkup  n=3 S=0.3333
+	// surgery  n=1 S=0.1667
+	// vaccine  n=2 S=0.4552
+	// out of fold [0.5000 0.1250 0.2500 0.1250 0.7500 0.1250]
+}

@@ -1,0 +1,122 @@
+package encode_test
+
+import (
+	"bytes"
+	"math"
+	"testing"
+
+	"github.com/stretchr/testify/require"
+
+	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/pipeline"
+)
+
+// clinicTrain is a small slice of the appointment no-show demo data.
+func clinicTrain() *tabprep.Frame {
+	return tabprep.MustFrame(
+		tabprep.NewCategorical("clinic", []string{"north", "south", "north", "east", "south", "north", "", "east"}),
+		tabprep.NewCategorical("species", []string{"dog", "cat", "dog", "rabbit", "cat", "dog", "cat", "dog"}),
+		tabprep.NewNumeric("days_ahead", []float64{3, 10, 1, 7, math.NaN(), 14, 2, 5}),
+		tabprep.NewNumeric("no_show", []float64{0, 1, 0, 1, 0, 0, 1, 0}),
+	)
+}
+
+// clinicNew holds an unseen clinic ("west"), missing cells and a holdout row.
+func clinicNew(t *testing.T) *tabprep.Frame {
+	t.Helper()
+	f := tabprep.MustFrame(
+		tabprep.NewCategorical("clinic", []string{"east", "west", "", "north"}),
+		tabprep.NewCategorical("species", []string{"cat", "dog", "ferret", "dog"}),
+		tabprep.NewNumeric("days_ahead", []float64{4, math.NaN(), 30, -1}),
+		tabprep.NewNumeric("no_show", []float64{0, 1, 1, 0}),
+	)
+	f, err := f.Tag(tabprep.Holdout("test"), []int{3})
+	require.NoError(t, err)
+	return f
+}
+
+// roundTrip fits a one-step pipeline on train, transforms data, saves,
+// loads and transforms again, and requires the two results to be equal bit
+// for bit. It returns the in-memory result.
+func roundTrip(t *testing.T, stage pipeline.Stage, train, data *tabprep.Frame) *tabprep.Frame {
+	t.Helper()
+	fitted, err := pipeline.New(stage).Fit(train)
+	require.NoError(t, err)
+	want, err := fitted.Transform(data)
+	require.NoError(t, err)
+	var buf bytes.Buffer
+	require.NoError(t, fitted.Save(&buf))
+	loaded, err := pipeline.Load(&buf)
+	require.NoError(t, err)
+	got, err := loaded.Transform(data)
+	require.NoError(t, err)
+	require.True(t, tabprep.Equal(want, got), "Save/Load changed the transform")
+	require.Equal(t, data.Roles(), want.Roles())
+	return want
+}
+
+// rowCells returns row i of f as cells.
+func rowCells(f *tabprep.Frame, i int, dst []tabprep.Cell) []tabprep.Cell {
+	dst = dst[:0]
+	for j := 0; j < f.NumCols(); j++ {
+		c := f.Col(j)
+		if c.Kind() == tabprep.Numeric {
+			dst = append(dst, tabprep.Cell{Num: c.Value(i)})
+		} else {
+			dst = append(dst, tabprep.Cell{Str: c.Level(i)})
+		}
+	}
+	return dst
+}
+
+// requireKernelMatches checks that the row function writes, row by row, the
+// cells of the batch transform, bit for bit, under the same schema names.
+func requireKernelMatches(t *testing.T, fn tabprep.RowFunc, out tabprep.Schema, data, batch *tabprep.Frame) {
+	t.Helper()
+	require.Equal(t, batch.Names(), out.Names())
+	dst := make([]tabprep.Cell, len(out.Columns))
+	var src []tabprep.Cell
+	for i := 0; i < data.NumRows(); i++ {
+		src = rowCells(data, i, src)
+		require.NoError(t, fn(dst, src))
+		want := rowCells(batch, i, nil)
+		for j := range want {
+			require.Equal(t, math.Float64bits(want[j].Num), math.Float64bits(dst[j].Num), "row %d col %s", i, out.Columns[j].Name)
+			require.Equal(t, want[j].Str, dst[j].Str, "row %d col %s", i, out.Columns[j].Name)
+		}
+	}
+}
+
+// kernelStep is a step with a row kernel.
+type kernelStep[P any] interface {
+	tabprep.Step[P]
+	tabprep.RowKernel[P]
+}
+
+// requireKernel fits s on the demo train rows, checks its row kernel against
+// its batch transform on the new rows, and checks that a row allocates
+// nothing. It returns the parameters.
+func requireKernel[P any](t *testing.T, s kernelStep[P]) P {
+	t.Helper()
+	p, err := s.Fit(clinicTrain())
+	require.NoError(t, err)
+	data := clinicNew(t)
+	batch, err := s.Transform(p, data)
+	require.NoError(t, err)
+	fn, out, err := s.RowKernel(p, data.Schema())
+	require.NoError(t, err)
+	requireKernelMatches(t, fn, out, data, batch)
+	dst := make([]tabprep.Cell, len(out.Columns))
+	for i := 0; i < data.NumRows(); i++ {
+		src := rowCells(data, i, nil)
+		require.Zero(t, testing.AllocsPerRun(50, func() { _ = fn(dst, src) }), "row %d allocates", i)
+	}
+	return p
+}
+
+func column(t *testing.T, f *tabprep.Frame, name string) []float64 {
+	t.Helper()
+	c, err := f.ColumnOf(name, tabprep.Numeric)
+	require.NoError(t, err)
+	return c.Float64s()
+}
