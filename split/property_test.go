@@ -412,6 +412,10 @@ func TestNested(t *testing.T) {
 	require.Equal(t, heldOut(a, split.Test), heldOut(b, split.Test))
 	require.Len(t, heldOut(b, split.Validation), 2)
 	require.Equal(t, 7, b.Train().NumRows())
+	// The tags do what they are for: a fit refuses the split frame and
+	// accepts its train rows.
+	require.ErrorIs(t, tabprep.RequireTrain("x.fit", b), tabprep.ErrHoldout)
+	require.NoError(t, tabprep.RequireTrain("x.fit", b.Train()))
 
 	_, _, err = split.Random{Rows: 2, Partition: split.Test}.Apply(a)
 	require.ErrorIs(t, err, tabprep.ErrRole, "a partition name already in use must be refused")
