@@ -8,8 +8,10 @@ import (
 
 // Names of the partitions [ThreeWay] fills.
 const (
+	// Validation is the partition of rows for choosing among models.
 	Validation = "validation"
-	Test       = "test"
+	// Test is the partition of rows kept for the final check.
+	Test = "test"
 )
 
 // ThreeWay divides rows into train, validation and test in one pass of one
