@@ -548,3 +548,37 @@ func TestReadCSVIOError(t *testing.T) {
 	_, err := tabprep.ReadCSV(io.MultiReader(strings.NewReader("a\n1\n"), errReader{}), nil)
 	require.ErrorIs(t, err, io.ErrUnexpectedEOF)
 }
+
+func TestReadCSVEdgeCases(t *testing.T) {
+	// Only the first byte order mark is dropped; a quoted "\r\n" reads as
+	// "\n", as encoding/csv documents.
+	f := readString(t, "\ufeff\"\ufeffclinic\",_role\nnorth,test\n\"a\r\nb\",train\n", nil)
+	require.Equal(t, []string{"\ufeffclinic"}, f.Names())
+	require.Equal(t, []string{"north", "a\nb"}, f.Col(0).Levels())
+	require.Equal(t, []tabprep.Role{tabprep.Holdout("test"), tabprep.Train}, f.Roles())
+	requireRoundTrip(t, f, nil)
+
+	// Whatever strconv.ParseFloat accepts is a number, and is written back
+	// in its shortest form.
+	g := readString(t, "clinic|days_ahead\n01|0x1p-2\n02|1_0\n", &tabprep.CSVOptions{Comma: '|'})
+	require.Equal(t, []float64{1, 2}, g.Col(0).Float64s())
+	require.Equal(t, []float64{0.25, 10}, g.Col(1).Float64s())
+	require.Equal(t, "clinic|days_ahead\n1|0.25\n2|10\n", writeString(t, g, &tabprep.CSVOptions{Comma: '|'}))
+
+	h := readString(t, "pet_age\n\"\"\n2\n\"\"\n", nil)
+	require.Equal(t, 2, h.Col(0).MissingCount())
+	requireRoundTrip(t, h, nil)
+}
+
+func TestCSVReaderChunksBreak(t *testing.T) {
+	r, err := tabprep.NewCSVReader(strings.NewReader("a\n1\n2\n3\n"), &tabprep.CSVOptions{ChunkRows: 1})
+	require.NoError(t, err)
+	for f, err := range r.Chunks() {
+		require.NoError(t, err)
+		require.Equal(t, []float64{1}, f.Col(0).Float64s())
+		break
+	}
+	f, err := r.Next()
+	require.NoError(t, err)
+	require.Equal(t, []float64{2}, f.Col(0).Float64s(), "the next chunk follows the one the loop stopped at")
+}

@@ -2,6 +2,7 @@ package tabprep
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/csv"
 	"errors"
 	"fmt"
@@ -257,23 +258,23 @@ func (b *roleBuilder) add(s string) error {
 }
 
 // csvColumn builds one data column of a chunk. A column whose kind is not
-// yet known keeps its parsed numbers and its raw text (in one byte arena, so
-// no string per cell) until a cell fails to parse, when it turns
-// categorical, or the chunk ends, when it becomes numeric.
+// yet known keeps its parsed numbers and its raw text until a cell fails to
+// parse, when it turns categorical, or the chunk ends, when it becomes
+// numeric. The text is one byte arena of the cells, each followed by '\n'
+// (which no number contains), so there is no string per cell.
 type csvColumn struct {
 	name  string
 	field int  // index in the record
 	kind  Kind // 0 while undecided
 	fixed bool // kind set by CSVOptions.Kinds, not inferred
 
-	nums []float64 // numeric, and undecided
+	nums blocks[float64] // numeric, and undecided
 
-	text    []byte // undecided: the cells' text, one after another
-	ends    []int  // undecided: end offset of each cell in text; an empty cell is missing
+	text    []byte // undecided: each cell's text and '\n'; an empty cell is missing
 	badLine int    // undecided: line of the first non-finite number, 0 if none
 	badText string
 
-	codes  []int32 // categorical
+	codes  blocks[int32] // categorical
 	levels []string
 	dict   map[string]int32
 }
@@ -286,7 +287,7 @@ func (c *csvColumn) add(d *CSVReader, s string) error {
 		return nil
 	case Numeric:
 		if missing {
-			c.nums = append(c.nums, math.NaN())
+			c.nums.add(math.NaN())
 			return nil
 		}
 		v, err := strconv.ParseFloat(s, 64)
@@ -296,12 +297,12 @@ func (c *csvColumn) add(d *CSVReader, s string) error {
 		if math.IsInf(v, 0) || math.IsNaN(v) {
 			return nonFinite(d.cfg, c.name, s, d.fieldLine(c.field))
 		}
-		c.nums = append(c.nums, v)
+		c.nums.add(v)
 		return nil
 	}
 	if missing {
-		c.nums = append(c.nums, math.NaN())
-		c.ends = append(c.ends, len(c.text))
+		c.nums.add(math.NaN())
+		c.keepText("")
 		return nil
 	}
 	v, err := strconv.ParseFloat(s, 64)
@@ -313,10 +314,21 @@ func (c *csvColumn) add(d *CSVReader, s string) error {
 	if c.badLine == 0 && (math.IsInf(v, 0) || math.IsNaN(v)) {
 		c.badLine, c.badText = d.fieldLine(c.field), strings.Clone(s)
 	}
-	c.nums = append(c.nums, v)
-	c.text = append(c.text, s...)
-	c.ends = append(c.ends, len(c.text))
+	c.nums.add(v)
+	c.keepText(s)
 	return nil
+}
+
+// keepText appends s and '\n' to the text arena, doubling its capacity when
+// full: append's gentler growth for large slices would copy it many times.
+func (c *csvColumn) keepText(s string) {
+	if need := len(c.text) + len(s) + 1; need > cap(c.text) {
+		t := make([]byte, len(c.text), max(2*cap(c.text), need, 4096))
+		copy(t, c.text)
+		c.text = t
+	}
+	c.text = append(c.text, s...)
+	c.text = append(c.text, '\n')
 }
 
 func isRangeError(err error) bool {
@@ -345,7 +357,7 @@ func (c *csvColumn) notNumber(d *CSVReader, s string) error {
 
 func (c *csvColumn) addLevel(s string, missing bool) {
 	if missing {
-		c.codes = append(c.codes, MissingCode)
+		c.codes.add(MissingCode)
 		return
 	}
 	code, ok := c.dict[s]
@@ -358,22 +370,22 @@ func (c *csvColumn) addLevel(s string, missing bool) {
 		c.levels = append(c.levels, s)
 		c.dict[s] = code
 	}
-	c.codes = append(c.codes, code)
+	c.codes.add(code)
 }
 
 // toCategorical turns an undecided column categorical, coding the cells read
 // so far from their kept text.
 func (c *csvColumn) toCategorical() {
 	c.kind = Categorical
-	c.codes = make([]int32, 0, cap(c.nums))
-	start := 0
-	for _, end := range c.ends {
-		cell := c.text[start:end]
-		if end == start {
-			c.codes = append(c.codes, MissingCode)
+	text := c.text
+	for len(text) > 0 {
+		end := bytes.IndexByte(text, '\n')
+		cell := text[:end]
+		text = text[end+1:]
+		if len(cell) == 0 {
+			c.codes.add(MissingCode)
 			continue
 		}
-		start = end
 		code, ok := c.dict[string(cell)] // no allocation for the lookup
 		if !ok {
 			if c.dict == nil {
@@ -384,9 +396,9 @@ func (c *csvColumn) toCategorical() {
 			c.levels = append(c.levels, l)
 			c.dict[l] = code
 		}
-		c.codes = append(c.codes, code)
+		c.codes.add(code)
 	}
-	c.nums, c.text, c.ends = nil, nil, nil
+	c.nums, c.text = blocks[float64]{}, nil
 	c.badLine, c.badText = 0, ""
 }
 
@@ -399,21 +411,55 @@ func (c *csvColumn) finish(d *CSVReader) (*Column, error) {
 			return nil, nonFinite(d.cfg, c.name, c.badText, c.badLine)
 		}
 		c.kind = Numeric
-		c.text, c.ends = nil, nil
+		c.text = nil
 	}
 	if c.kind == Numeric {
-		col := AdoptNumeric(c.name, c.nums)
-		c.nums = nil
-		return col, nil
+		return AdoptNumeric(c.name, c.nums.take()), nil
 	}
-	col := &Column{name: c.name, kind: Categorical, codes: nonNilCodes(c.codes), levels: nonNil(c.levels)}
-	c.codes, c.levels, c.dict = nil, nil, nil
+	col := &Column{name: c.name, kind: Categorical, codes: c.codes.take(), levels: nonNil(c.levels)}
+	c.levels, c.dict = nil, nil
 	return col, nil
 }
 
-func nonNilCodes(s []int32) []int32 {
-	if s == nil {
-		return []int32{}
+// blocks is a growing list of values kept in blocks of bounded size, so
+// that a column of unknown length is copied once, when it is taken, rather
+// than at every growth, and ends with no spare capacity.
+type blocks[T any] struct {
+	full [][]T
+	n    int // values in full
+	cur  []T
+}
+
+func (b *blocks[T]) add(v T) {
+	if len(b.cur) == cap(b.cur) {
+		b.grow()
 	}
-	return s
+	b.cur = append(b.cur, v)
+}
+
+func (b *blocks[T]) grow() {
+	size := 256
+	if c := cap(b.cur); c > 0 {
+		b.full = append(b.full, b.cur)
+		b.n += len(b.cur)
+		size = min(2*c, 1<<16)
+	}
+	b.cur = make([]T, 0, size)
+}
+
+// take returns every value added, never nil, and empties b.
+func (b *blocks[T]) take() []T {
+	out := b.cur
+	if b.full != nil {
+		out = make([]T, 0, b.n+len(b.cur))
+		for _, blk := range b.full {
+			out = append(out, blk...)
+		}
+		out = append(out, b.cur...)
+	}
+	*b = blocks[T]{}
+	if out == nil {
+		out = []T{}
+	}
+	return out
 }
