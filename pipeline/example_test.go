@@ -21,7 +21,7 @@ func Example() {
 		tabprep.NewNumeric("pet_age", []float64{2, math.NaN(), 7, 4, 11, 1, 9, 3, 5, 6}),
 		tabprep.NewNumeric("days_ahead", []float64{1, 14, 3, 30, 2, 7, 5, 60, 4, 10}),
 	)
-	tagged, _, err := split.Random{Fraction: 0.3, Stream: 1}.Apply(frame)
+	tagged, _, err := split.Random{Fraction: 0.3, Seed: 1}.Apply(frame)
 	if err != nil {
 		log.Fatal(err)
 	}

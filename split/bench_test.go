@@ -44,7 +44,7 @@ func benchFrame(b *testing.B, n int) *tabprep.Frame {
 // baseline is BenchmarkPerm10M in the same run.
 func BenchmarkStratifiedSplit10M(b *testing.B) {
 	f := benchFrame(b, benchRows)
-	s := split.Stratified{Column: "species", Fraction: 0.2, Stream: 7}
+	s := split.Stratified{Column: "species", Fraction: 0.2, Seed: 7}
 	out, rep, err := s.Apply(f)
 	if err != nil {
 		b.Fatal(err)

@@ -34,11 +34,11 @@
 //
 // Every random choice comes from one generator: PCG (the DXSM variant that
 // math/rand/v2 implements, whose output is specified) started at
-// (Stream, 0x7461627072657021), with integers in a range drawn by Lemire's
+// (Seed, 0x7461627072657021), with integers in a range drawn by Lemire's
 // multiply-and-reject method, written in this package rather than taken
 // from rand.Rand. Class quotas are computed in integer arithmetic, classes
 // are visited in level order and rows in row order, and no map order is
-// ever used. So the same Stream, options and rows give the same split on
+// ever used. So the same Seed, options and rows give the same split on
 // every platform and Go version; a golden test guards this. Ordered,
 // Systematic and KeyHash draw nothing; KeyHash depends only on each key and
 // the salt, not on the other rows or their order.

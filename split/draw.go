@@ -6,7 +6,7 @@ import (
 )
 
 // streamTag is the second word of every PCG state this package makes, so a
-// Stream value alone picks the sequence. It spells "tabprep!" in ASCII.
+// Seed value alone picks the sequence. It spells "tabprep!" in ASCII.
 const streamTag = 0x7461627072657021
 
 // draw is the package's only source of randomness: the PCG generator of

@@ -87,13 +87,13 @@ func TestReportTable(t *testing.T) {
 	// The one-row class (bird) stays in train and is noted; the missing
 	// class is its own stratum.
 	f := tabprep.MustFrame(tabprep.NewCategorical("species", []string{"dog", "dog", "cat", "cat", "bird", "", "", "dog", "cat", "dog"}))
-	out, rep, err := split.Stratified{Column: "species", Fraction: 0.5, Stream: 4, MissingAsClass: true}.Apply(f)
+	out, rep, err := split.Stratified{Column: "species", Fraction: 0.5, Seed: 4, MissingAsClass: true}.Apply(f)
 	require.NoError(t, err)
 	require.Equal(t, tabprep.Train, out.Role(4))
 	// By hand: 5 of 10 rows; quotas dog 2.0, cat 1.5, missing 1.0, bird
 	// kept in train, so the one row still owed goes to cat, the largest
 	// remainder.
-	require.Equal(t, `stratified split on species, stream 4: 10 rows
+	require.Equal(t, `stratified split on species, seed 4: 10 rows
 partition  rows  share
 train         5  50.0%
 holdout       5  50.0%

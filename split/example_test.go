@@ -33,7 +33,7 @@ func heldOut(f *tabprep.Frame, name string) []int {
 }
 
 func ExampleRandom() {
-	out, rep, err := split.Random{Fraction: 0.25, Stream: 7}.Apply(clinicFrame())
+	out, rep, err := split.Random{Fraction: 0.25, Seed: 7}.Apply(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -44,14 +44,14 @@ func ExampleRandom() {
 	// Output:
 	// holdout rows: [0 2 7]
 	// train rows to fit on: 9
-	// random split, stream 7: 12 rows
+	// random split, seed 7: 12 rows
 	// partition  rows  share
 	// train         9  75.0%
 	// holdout       3  25.0%
 }
 
 func ExampleStratified() {
-	s := split.Stratified{Column: "species", Fraction: 0.5, Stream: 1}
+	s := split.Stratified{Column: "species", Fraction: 0.5, Seed: 1}
 	out, rep, err := s.Apply(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
@@ -61,7 +61,7 @@ func ExampleStratified() {
 	fmt.Print(rep)
 	// Output:
 	// holdout rows: [0 4 5 6 7 10]
-	// stratified split on species, stream 1: 12 rows
+	// stratified split on species, seed 1: 12 rows
 	// partition  rows  share
 	// train         6  50.0%
 	// holdout       6  50.0%
@@ -137,7 +137,7 @@ func ExampleKeyHash() {
 }
 
 func ExampleThreeWay() {
-	s := split.ThreeWay{By: split.Stratified{Column: "species", Stream: 3}, Validation: 0.25, Test: 0.25}
+	s := split.ThreeWay{By: split.Stratified{Column: "species", Seed: 3}, Validation: 0.25, Test: 0.25}
 	out, rep, err := s.Apply(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
@@ -149,7 +149,7 @@ func ExampleThreeWay() {
 	// Output:
 	// validation: [5 8 9]
 	// test: [2 4 11]
-	// three-way stratified split on species, stream 3: 12 rows
+	// three-way stratified split on species, seed 3: 12 rows
 	// partition   rows  share
 	// train          6  50.0%
 	// validation     3  25.0%
@@ -162,7 +162,7 @@ func ExampleThreeWay() {
 }
 
 func ExampleRandomFolds() {
-	folds, err := split.RandomFolds{K: 3, Stream: 5}.Folds(clinicFrame())
+	folds, err := split.RandomFolds{K: 3, Seed: 5}.Folds(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -177,7 +177,7 @@ func ExampleRandomFolds() {
 }
 
 func ExampleStratifiedFolds() {
-	folds, err := split.StratifiedFolds{Column: "species", K: 2, Stream: 5}.Folds(clinicFrame())
+	folds, err := split.StratifiedFolds{Column: "species", K: 2, Seed: 5}.Folds(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -190,7 +190,7 @@ func ExampleStratifiedFolds() {
 	}
 	// Output:
 	// fold 0 holdout: [1 2 3 6 9 10]
-	// stratified 2-fold on species, stream 5, fold 1 of 2: 12 rows
+	// stratified 2-fold on species, seed 5, fold 1 of 2: 12 rows
 	// partition  rows  share
 	// train         6  50.0%
 	// holdout       6  50.0%
@@ -204,7 +204,7 @@ func ExampleStratifiedFolds() {
 
 func ExampleGroupFolds() {
 	// No pet is ever on both sides of a fold.
-	folds, err := split.GroupFolds{Column: "pet_id", K: 3, Stream: 2}.Folds(clinicFrame())
+	folds, err := split.GroupFolds{Column: "pet_id", K: 3, Seed: 2}.Folds(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -247,7 +247,7 @@ func ExampleTimeFolds() {
 }
 
 func ExampleReport_WriteTo() {
-	_, rep, err := split.Random{Rows: 4, Stream: 9, ReportBy: "clinic"}.Apply(clinicFrame())
+	_, rep, err := split.Random{Rows: 4, Seed: 9, ReportBy: "clinic"}.Apply(clinicFrame())
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -256,7 +256,7 @@ func ExampleReport_WriteTo() {
 	fmt.Print(rep.String())
 	// Output:
 	// realised share 0.333
-	// random split, stream 9: 12 rows
+	// random split, seed 9: 12 rows
 	// partition  rows  share
 	// train         8  66.7%
 	// holdout       4  33.3%

@@ -116,8 +116,8 @@ func equalBounds(n, k int) []int {
 type RandomFolds struct {
 	// K is the number of folds, at least 2 and at most the rows to split.
 	K int
-	// Stream picks the pseudo-random sequence; any value is fine.
-	Stream uint64
+	// Seed picks the pseudo-random sequence; any value is fine.
+	Seed uint64
 	// ReportBy names a categorical column whose classes each fold's report
 	// counts; "" for none.
 	ReportBy string
@@ -140,8 +140,8 @@ func (s RandomFolds) Folds(f *tabprep.Frame) (iter.Seq2[int, Fold], error) {
 	for j := range order {
 		order[j] = rs.row(j)
 	}
-	shuffle(newDraw(s.Stream), order)
-	return foldSet{op: op, method: fmt.Sprintf("random %d-fold, stream %d", s.K, s.Stream), reportBy: s.ReportBy,
+	shuffle(newDraw(s.Seed), order)
+	return foldSet{op: op, method: fmt.Sprintf("random %d-fold, seed %d", s.K, s.Seed), reportBy: s.ReportBy,
 		f: f, rs: rs, k: s.K, hold: blocks(order, equalBounds(rs.n, s.K))}.seq()
 }
 
@@ -155,8 +155,8 @@ type StratifiedFolds struct {
 	Column string
 	// K is the number of folds, at least 2 and at most the rows to split.
 	K int
-	// Stream picks the pseudo-random sequence; any value is fine.
-	Stream uint64
+	// Seed picks the pseudo-random sequence; any value is fine.
+	Seed uint64
 	// MissingAsClass makes missing cells of Column one more class; without
 	// it a missing cell is an error.
 	MissingAsClass bool
@@ -197,7 +197,7 @@ func (s StratifiedFolds) Folds(f *tabprep.Frame) (iter.Seq2[int, Fold], error) {
 		byClass[fill[c]] = i
 		fill[c]++
 	}
-	d := newDraw(s.Stream)
+	d := newDraw(s.Seed)
 	bounds := equalBounds(rs.n, s.K)
 	order := make([]int, rs.n)
 	next := slices.Clone(bounds[:s.K])
@@ -211,7 +211,7 @@ func (s StratifiedFolds) Folds(f *tabprep.Frame) (iter.Seq2[int, Fold], error) {
 			deal = (deal + 1) % s.K
 		}
 	}
-	return foldSet{op: op, method: fmt.Sprintf("stratified %d-fold on %s, stream %d", s.K, s.Column, s.Stream), reportBy: by,
+	return foldSet{op: op, method: fmt.Sprintf("stratified %d-fold on %s, seed %d", s.K, s.Column, s.Seed), reportBy: by,
 		f: f, rs: rs, k: s.K, hold: blocks(order, bounds)}.seq()
 }
 
@@ -230,8 +230,8 @@ type GroupFolds struct {
 	// K is the number of folds, at least 2 and at most the number of
 	// groups.
 	K int
-	// Stream picks the pseudo-random sequence; any value is fine.
-	Stream uint64
+	// Seed picks the pseudo-random sequence; any value is fine.
+	Seed uint64
 	// ReportBy names a categorical column whose classes each fold's report
 	// counts; "" for none.
 	ReportBy string
@@ -265,7 +265,7 @@ func (s GroupFolds) Folds(f *tabprep.Frame) (iter.Seq2[int, Fold], error) {
 	for g := range ids {
 		ids[g] = g
 	}
-	shuffle(newDraw(s.Stream), ids)
+	shuffle(newDraw(s.Seed), ids)
 	slices.SortStableFunc(ids, func(a, b int) int { return cmp.Compare(size[b], size[a]) })
 	foldOf := make([]int, groups)
 	load := make([]int, s.K)
@@ -290,7 +290,7 @@ func (s GroupFolds) Folds(f *tabprep.Frame) (iter.Seq2[int, Fold], error) {
 		order[next[k]] = rs.row(j)
 		next[k]++
 	}
-	return foldSet{op: op, method: fmt.Sprintf("group %d-fold on %s, stream %d", s.K, s.Column, s.Stream), reportBy: s.ReportBy,
+	return foldSet{op: op, method: fmt.Sprintf("group %d-fold on %s, seed %d", s.K, s.Column, s.Seed), reportBy: s.ReportBy,
 		f: f, rs: rs, k: s.K, hold: blocks(order, bounds)}.seq()
 }
 

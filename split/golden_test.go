@@ -29,7 +29,7 @@ func goldenFrame() *tabprep.Frame {
 	return tabprep.MustFrame(tabprep.NewCategorical("species", species), tabprep.NewNumeric("pet_id", pet))
 }
 
-// TestGolden checks that fixed Streams on a fixed frame give the committed
+// TestGolden checks that fixed seeds on a fixed frame give the committed
 // holdout rows, which guards the promise that a split is the same on every
 // platform and Go version. Run with -update only after a deliberate change.
 func TestGolden(t *testing.T) {
@@ -42,28 +42,28 @@ func TestGolden(t *testing.T) {
 		}
 		b.WriteString("\n")
 	}
-	out, _, err := split.Random{Fraction: 0.25, Stream: 42}.Apply(f)
+	out, _, err := split.Random{Fraction: 0.25, Seed: 42}.Apply(f)
 	require.NoError(t, err)
-	line("random 0.25 stream 42", out, "holdout")
-	out, _, err = split.Stratified{Column: "species", Fraction: 0.3, Stream: 42}.Apply(f)
+	line("random 0.25 seed 42", out, "holdout")
+	out, _, err = split.Stratified{Column: "species", Fraction: 0.3, Seed: 42}.Apply(f)
 	require.NoError(t, err)
-	line("stratified species 0.3 stream 42", out, "holdout")
-	out, _, err = split.ThreeWay{By: split.Stratified{Column: "species", Stream: 9}, Validation: 0.2, Test: 0.2}.Apply(f)
+	line("stratified species 0.3 seed 42", out, "holdout")
+	out, _, err = split.ThreeWay{By: split.Stratified{Column: "species", Seed: 9}, Validation: 0.2, Test: 0.2}.Apply(f)
 	require.NoError(t, err)
-	line("three-way stratified stream 9 validation", out, split.Validation)
-	line("three-way stratified stream 9 test", out, split.Test)
+	line("three-way stratified seed 9 validation", out, split.Validation)
+	line("three-way stratified seed 9 test", out, split.Test)
 	out, _, err = split.KeyHash{Column: "pet_id", Fraction: 0.3, Salt: "golden"}.Apply(f)
 	require.NoError(t, err)
 	line("keyhash pet_id 0.3 salt golden", out, "holdout")
-	folds, err := split.RandomFolds{K: 4, Stream: 42}.Folds(f)
+	folds, err := split.RandomFolds{K: 4, Seed: 42}.Folds(f)
 	require.NoError(t, err)
 	for i, fold := range folds {
-		line(fmt.Sprintf("random 4-fold stream 42 fold %d", i), fold.Frame, "holdout")
+		line(fmt.Sprintf("random 4-fold seed 42 fold %d", i), fold.Frame, "holdout")
 	}
-	folds, err = split.GroupFolds{Column: "pet_id", K: 3, Stream: 42}.Folds(f)
+	folds, err = split.GroupFolds{Column: "pet_id", K: 3, Seed: 42}.Folds(f)
 	require.NoError(t, err)
 	for i, fold := range folds {
-		line(fmt.Sprintf("group 3-fold stream 42 fold %d", i), fold.Frame, "holdout")
+		line(fmt.Sprintf("group 3-fold seed 42 fold %d", i), fold.Frame, "holdout")
 	}
 
 	path := filepath.Join("testdata", "golden_holdout.txt")
@@ -94,7 +94,7 @@ func TestIrisClassShares(t *testing.T) {
 	f := tabprep.MustFrame(tabprep.NewNumeric("petal_length", petal), tabprep.NewCategorical("species", species))
 
 	for stream := range uint64(20) {
-		out, rep, err := split.Stratified{Column: "species", Fraction: 0.2, Stream: stream}.Apply(f)
+		out, rep, err := split.Stratified{Column: "species", Fraction: 0.2, Seed: stream}.Apply(f)
 		require.NoError(t, err)
 		require.Equal(t, 30, out.HoldoutCount())
 		require.Len(t, rep.Classes, 3)
@@ -113,14 +113,14 @@ func TestIrisClassShares(t *testing.T) {
 			require.Equal(t, 10, n, level)
 		}
 
-		out, rep, err = split.ThreeWay{By: split.Stratified{Column: "species", Stream: stream}, Validation: 0.2, Test: 0.2}.Apply(f)
+		out, rep, err = split.ThreeWay{By: split.Stratified{Column: "species", Seed: stream}, Validation: 0.2, Test: 0.2}.Apply(f)
 		require.NoError(t, err)
 		for _, c := range rep.Classes {
 			require.Equal(t, []int{30, 10, 10}, c.Rows, "class %s", c.Level)
 		}
 		require.Len(t, heldOut(out, split.Test), 30)
 
-		folds, err := split.StratifiedFolds{Column: "species", K: 5, Stream: stream}.Folds(f)
+		folds, err := split.StratifiedFolds{Column: "species", K: 5, Seed: stream}.Folds(f)
 		require.NoError(t, err)
 		for i, fold := range folds {
 			for _, c := range fold.Report.Classes {

@@ -154,12 +154,12 @@ func TestTwoWayProperties(t *testing.T) {
 				t.Skip("fraction rounds to an empty side; TestErrors covers it")
 			}
 
-			out, rep, err := split.Random{Fraction: frac, Stream: stream}.Apply(f)
+			out, rep, err := split.Random{Fraction: frac, Seed: stream}.Apply(f)
 			require.NoError(t, err)
 			got := checkCarried(t, f, out, rep, []string{"holdout"})
 			require.Len(t, got[1], h)
 
-			out, rep, err = split.Stratified{Column: "species", Fraction: frac, Stream: stream, MissingAsClass: true}.Apply(f)
+			out, rep, err = split.Stratified{Column: "species", Fraction: frac, Seed: stream, MissingAsClass: true}.Apply(f)
 			require.NoError(t, err)
 			got = checkCarried(t, f, out, rep, []string{"holdout"})
 			q := float64(h) / float64(free)
@@ -221,7 +221,7 @@ func TestThreeWayProperties(t *testing.T) {
 		v, te := 0.05+0.4*r.Float64(), 0.05+0.4*r.Float64()
 		stream := r.Uint64()
 		t.Run(fmt.Sprint(trial), func(t *testing.T) {
-			out, rep, err := split.ThreeWay{By: split.Stratified{Column: "species", Stream: stream}, Validation: v, Test: te}.Apply(f)
+			out, rep, err := split.ThreeWay{By: split.Stratified{Column: "species", Seed: stream}, Validation: v, Test: te}.Apply(f)
 			if err != nil {
 				require.ErrorIs(t, err, split.ErrTooFew)
 				return
@@ -232,7 +232,7 @@ func TestThreeWayProperties(t *testing.T) {
 			qt := math.Round(te*float64(free)) / float64(free)
 			checkShares(t, f, "species", got, []float64{1 - qv - qt, qv, qt}, true)
 
-			out, rep, err = split.ThreeWay{By: split.Random{Stream: stream}, Validation: v, Test: te}.Apply(f)
+			out, rep, err = split.ThreeWay{By: split.Random{Seed: stream}, Validation: v, Test: te}.Apply(f)
 			require.NoError(t, err)
 			got = checkCarried(t, f, out, rep, parts)
 			require.Len(t, got[1], int(math.Round(v*float64(free))))
@@ -305,21 +305,21 @@ func TestFoldProperties(t *testing.T) {
 		k := 2 + r.IntN(min(free-1, 9))
 		stream := r.Uint64()
 		t.Run(fmt.Sprint(trial), func(t *testing.T) {
-			folds, err := split.RandomFolds{K: k, Stream: stream}.Folds(f)
+			folds, err := split.RandomFolds{K: k, Seed: stream}.Folds(f)
 			require.NoError(t, err)
 			hold, _ := checkFolds(t, f, folds, k)
 			for _, h := range hold {
 				require.InDelta(t, float64(free)/float64(k), float64(len(h)), 1)
 			}
 
-			folds, err = split.StratifiedFolds{Column: "species", K: k, Stream: stream}.Folds(f)
+			folds, err = split.StratifiedFolds{Column: "species", K: k, Seed: stream}.Folds(f)
 			require.NoError(t, err)
 			hold, train := checkFolds(t, f, folds, k)
 			for i := range hold {
 				checkShares(t, f, "species", [][]int{train[i], hold[i]}, []float64{1 - 1/float64(k), 1 / float64(k)}, false)
 			}
 
-			folds, err = split.GroupFolds{Column: "pet_id", K: k, Stream: stream}.Folds(f)
+			folds, err = split.GroupFolds{Column: "pet_id", K: k, Seed: stream}.Folds(f)
 			if err != nil {
 				require.ErrorIs(t, err, split.ErrTooFew)
 			} else {
@@ -405,7 +405,7 @@ func TestNested(t *testing.T) {
 	f := clinicFrame()
 	a, _, err := split.Ordered{Column: "booked_on", Rows: 3, Partition: split.Test}.Apply(f)
 	require.NoError(t, err)
-	b, rep, err := split.Random{Rows: 2, Partition: split.Validation, Stream: 1}.Apply(a)
+	b, rep, err := split.Random{Rows: 2, Partition: split.Validation, Seed: 1}.Apply(a)
 	require.NoError(t, err)
 	require.Equal(t, 3, rep.Kept)
 	require.Equal(t, 9, rep.Rows)

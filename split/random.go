@@ -9,7 +9,7 @@ import (
 // Random holds out a uniformly random set of rows of a given size.
 //
 // Every set of that size is equally likely. The rows are chosen by Floyd's
-// sampling algorithm driven by the package's PCG stream, so the same Stream
+// sampling algorithm driven by the package's PCG stream, so the same Seed
 // on the same rows gives the same split on every platform and Go version.
 type Random struct {
 	// Fraction is the share of rows to hold out, in (0, 1); the count is
@@ -20,8 +20,8 @@ type Random struct {
 	// Partition names the holdout partition; "" means
 	// [tabprep.DefaultPartition].
 	Partition string
-	// Stream picks the pseudo-random sequence; any value is fine.
-	Stream uint64
+	// Seed picks the pseudo-random sequence; any value is fine.
+	Seed uint64
 	// ReportBy names a categorical column whose classes the report counts
 	// per partition; "" for none.
 	ReportBy string
@@ -32,7 +32,7 @@ func (s Random) Apply(f *tabprep.Frame) (*tabprep.Frame, *Report, error) {
 	return apply("split.random", s, f, part{partName(s.Partition, tabprep.DefaultPartition), s.Fraction, s.Rows}, s.method(), s.ReportBy)
 }
 
-func (s Random) method() string { return fmt.Sprintf("random split, stream %d", s.Stream) }
+func (s Random) method() string { return fmt.Sprintf("random split, seed %d", s.Seed) }
 
 func (s Random) sized() bool { return s.Fraction != 0 || s.Rows != 0 || s.Partition != "" }
 
@@ -44,5 +44,5 @@ func (s Random) divide(op string, _ *tabprep.Frame, rs rowset, parts []part) (pl
 		return plan{}, err
 	}
 	st := countStrata(rs, nil, 1)
-	return plan{rows: sample(newDraw(s.Stream), rs, st, [][]int{want})}, nil
+	return plan{rows: sample(newDraw(s.Seed), rs, st, [][]int{want})}, nil
 }

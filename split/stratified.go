@@ -26,8 +26,8 @@ type Stratified struct {
 	// Partition names the holdout partition; "" means
 	// [tabprep.DefaultPartition].
 	Partition string
-	// Stream picks the pseudo-random sequence; any value is fine.
-	Stream uint64
+	// Seed picks the pseudo-random sequence; any value is fine.
+	Seed uint64
 	// MissingAsClass makes missing cells of Column one more class; without
 	// it a missing cell is an error.
 	MissingAsClass bool
@@ -45,7 +45,7 @@ func (s Stratified) Apply(f *tabprep.Frame) (*tabprep.Frame, *Report, error) {
 func (s Stratified) sized() bool { return s.Fraction != 0 || s.Rows != 0 || s.Partition != "" }
 
 func (s Stratified) describe() (string, string) {
-	return fmt.Sprintf("stratified split on %s, stream %d", s.Column, s.Stream), partName(s.ReportBy, s.Column)
+	return fmt.Sprintf("stratified split on %s, seed %d", s.Column, s.Seed), partName(s.ReportBy, s.Column)
 }
 
 func (s Stratified) divide(op string, f *tabprep.Frame, rs rowset, parts []part) (plan, error) {
@@ -60,7 +60,7 @@ func (s Stratified) divide(op string, f *tabprep.Frame, rs rowset, parts []part)
 	levels := col.Levels()
 	st := countStrata(rs, col.Codes(), len(levels)+1)
 	got := apportion(st.count, rs.n, want)
-	pl := plan{rows: sample(newDraw(s.Stream), rs, st, got)}
+	pl := plan{rows: sample(newDraw(s.Seed), rs, st, got)}
 	for c, m := range st.count {
 		if m == 1 {
 			name := "(missing)"

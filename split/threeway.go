@@ -20,7 +20,7 @@ const (
 // twice).
 //
 // By is a [Random], [Stratified], [Ordered] or [KeyHash] value with its
-// options (Column, Stream, Salt, ReportBy) set and its size and partition
+// options (Column, Seed, Salt, ReportBy) set and its size and partition
 // fields left zero: ThreeWay supplies them. Fractions are shares of all
 // the rows split. An [Ordered] method puts the test rows last and the
 // validation rows just before them.

@@ -77,7 +77,7 @@ func run(w io.Writer, statePath string) error {
 	fmt.Fprintf(w, "Read %d bookings with %d columns: %s\n\n", all.NumRows(), all.NumCols(), strings.Join(all.Names(), ", "))
 
 	// 1. Split: hold out 20% for test, keeping the no-show share in both.
-	tagged, report, err := split.Stratified{Column: "no_show", Fraction: 0.2, Partition: "test", Stream: 7}.Apply(all)
+	tagged, report, err := split.Stratified{Column: "no_show", Fraction: 0.2, Partition: "test", Seed: 7}.Apply(all)
 	if err != nil {
 		return err
 	}
