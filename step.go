@@ -43,18 +43,20 @@ type Cell struct {
 // schema does not list, such as a level first met in serving.
 const UnseenCode int32 = -2
 
-// RowFunc applies a fitted step to one row. src is laid out by the step's
-// input schema and dst by its output schema, both known when the function
-// is made; dst belongs to the caller. A RowFunc must not allocate on the
-// common path and must be safe for concurrent use.
-type RowFunc func(dst, src []Cell) error
+// RowFunc applies a fitted step to one row held in a register file of
+// cells: the slots it reads and writes were fixed when it was made, from a
+// [RowLayout]. A RowFunc writes every slot it adds, on every row, must not
+// allocate on the common path, and must be safe for concurrent use (each
+// caller has its own register file).
+type RowFunc func(regs []Cell) error
 
 // RowKernel is implemented by steps that can act on a single row, for
 // compiled serving plans.
 type RowKernel[P any] interface {
-	// RowKernel returns the row function of p for rows laid out by in, and
-	// the layout of the rows it writes.
-	RowKernel(p P, in Schema) (RowFunc, Schema, error)
+	// RowKernel returns the row function of p for rows laid out by l, and
+	// records in l what the step does to the columns (see [RowLayout]), so
+	// that l afterwards lays out the step's output.
+	RowKernel(p P, l *RowLayout) (RowFunc, error)
 }
 
 // Accumulator gathers the statistics of a fit chunk by chunk, for data that

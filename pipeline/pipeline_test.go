@@ -314,33 +314,32 @@ func TestFitErrorNamesStep(t *testing.T) {
 	require.Panics(t, func() { pipeline.New(nil) })
 }
 
-func (c center) RowKernel(p centerParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	pos := in.Index(c.Column)
-	if pos < 0 {
-		return nil, tabprep.Schema{}, errors.New("no column")
+func (c center) RowKernel(p centerParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	k, _, ok := l.Slot(c.Column)
+	if !ok {
+		return nil, errors.New("no column")
 	}
 	m := float64(p.Mean)
-	return func(dst, src []tabprep.Cell) error {
-		copy(dst, src)
-		dst[pos].Num = src[pos].Num - m
+	return func(regs []tabprep.Cell) error {
+		regs[k].Num -= m
 		return nil
-	}, in, nil
+	}, nil
 }
 
-func (f flag) RowKernel(p flagParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	pos := in.Index(f.Column)
-	code := int32(slicesIndex(in.Columns[pos].Levels, p.Level))
-	out := tabprep.Schema{Columns: append(append([]tabprep.Field(nil), in.Columns...),
-		tabprep.Field{Name: f.Column + "_is_" + p.Level, Kind: tabprep.Numeric})}
-	n := len(in.Columns)
-	return func(dst, src []tabprep.Cell) error {
-		copy(dst, src)
-		dst[n] = tabprep.Cell{}
-		if src[pos].Code == code {
-			dst[n].Num = 1
+func (f flag) RowKernel(p flagParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	k, field, ok := l.Slot(f.Column)
+	if !ok {
+		return nil, errors.New("no column")
+	}
+	code := int32(slicesIndex(field.Levels, p.Level))
+	out := l.Add(tabprep.Field{Name: f.Column + "_is_" + p.Level, Kind: tabprep.Numeric})
+	return func(regs []tabprep.Cell) error {
+		regs[out] = tabprep.Cell{}
+		if regs[k].Code == code {
+			regs[out].Num = 1
 		}
 		return nil
-	}, out, nil
+	}, nil
 }
 
 func slicesIndex(s []string, v string) int {

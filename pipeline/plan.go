@@ -13,15 +13,18 @@ import (
 // reads an input row laid out by the input schema (values by column
 // position) and writes the output row into a buffer the caller owns.
 //
-// Apply does not allocate, looks up no column name and uses no reflection;
-// its output is bit-identical to [Fitted.Transform] of the same row. A Plan
-// is safe for concurrent use by many goroutines.
+// The row lives in a register file of cells in which every column has a
+// slot: a step touches only the slots of the columns it changes or adds, and
+// the output is gathered from its slots at the end, so no step copies the
+// row. Apply does not allocate, looks up no column name and uses no
+// reflection; its output is bit-identical to [Fitted.Transform] of the same
+// row. A Plan is safe for concurrent use by many goroutines.
 type Plan struct {
 	in         tabprep.Schema
 	out        tabprep.Schema
 	funcs      []tabprep.RowFunc
-	widths     []int          // width of the layout each step writes
-	width      int            // the widest layout, for scratch rows
+	outSlots   []int          // slot of each output column
+	slots      int            // register file size
 	cats       []int          // positions of categorical input columns
 	entry      []levelTable   // per input column; empty for numeric ones
 	fields     map[string]int // input column name → position, for the helpers
@@ -61,8 +64,8 @@ func (t *levelTable) code(s string) int32 {
 }
 
 type rowScratch struct {
-	a, b, out, src []tabprep.Cell
-	cols           []*tabprep.Column
+	regs, src []tabprep.Cell
+	cols      []*tabprep.Column
 }
 
 // Compile returns the row plan of f. Every step must have a row kernel; a
@@ -77,33 +80,27 @@ func (f *Fitted) Compile() (*Plan, error) {
 			p.entry[i] = newLevelTable(c.Levels)
 		}
 	}
-	layout := p.in
-	p.width = len(layout.Columns)
+	layout := tabprep.NewRowLayout(p.in)
 	for i, s := range f.steps {
-		fn, out, err := s.RowKernel(layout)
+		fn, err := s.RowKernel(layout)
 		if err != nil {
 			return nil, fmt.Errorf("pipeline: compile: step %d (%s) cannot act on one row: %w; transform such data in batches with Fitted.Transform", i, s.Kind(), err)
 		}
 		p.funcs = append(p.funcs, fn)
-		p.widths = append(p.widths, len(out.Columns))
-		layout = out
-		p.width = max(p.width, len(layout.Columns))
 	}
-	if !slices.Equal(layout.Names(), f.output.Names()) {
-		return nil, fmt.Errorf("pipeline: compile: row kernels lay out %v but the batch transform gives %v; a step's row kernel disagrees with its Transform", layout.Names(), f.output.Names())
+	p.out = layout.Schema()
+	if !slices.Equal(p.out.Names(), f.output.Names()) {
+		return nil, fmt.Errorf("pipeline: compile: row kernels lay out %v but the batch transform gives %v; a step's row kernel disagrees with its Transform", p.out.Names(), f.output.Names())
 	}
-	p.out = layout
+	p.slots = layout.Slots()
+	p.outSlots = make([]int, layout.Len())
 	p.numericOut = true
-	for _, c := range layout.Columns {
+	for i, c := range p.out.Columns {
+		p.outSlots[i] = layout.SlotAt(i)
 		p.numericOut = p.numericOut && c.Kind == tabprep.Numeric
 	}
 	p.scratch.New = func() any {
-		return &rowScratch{
-			a:   make([]tabprep.Cell, p.width),
-			b:   make([]tabprep.Cell, p.width),
-			out: make([]tabprep.Cell, len(p.out.Columns)),
-			src: make([]tabprep.Cell, len(p.in.Columns)),
-		}
+		return &rowScratch{regs: make([]tabprep.Cell, p.slots), src: make([]tabprep.Cell, len(p.in.Columns))}
 	}
 	return p, nil
 }
@@ -129,30 +126,26 @@ func (p *Plan) Apply(dst, src []tabprep.Cell) error {
 			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
 	}
 	s := p.scratch.Get().(*rowScratch)
-	err := p.apply(s, dst, src)
-	p.scratch.Put(s)
-	return err
+	defer p.scratch.Put(s)
+	if err := p.run(s.regs, src); err != nil {
+		return err
+	}
+	for i, k := range p.outSlots {
+		dst[i] = s.regs[k]
+	}
+	return nil
 }
 
-func (p *Plan) apply(s *rowScratch, dst, src []tabprep.Cell) error {
-	cur := s.a[:len(src)]
-	copy(cur, src)
+// run loads src into regs and runs every step's row function.
+func (p *Plan) run(regs, src []tabprep.Cell) error {
+	copy(regs, src)
 	for _, i := range p.cats {
-		cur[i].Code = p.entry[i].code(cur[i].Str)
+		regs[i].Code = p.entry[i].code(regs[i].Str)
 	}
-	spare := s.b
-	for i, fn := range p.funcs {
-		out := dst
-		if i < len(p.funcs)-1 {
-			out = spare[:p.widths[i]]
-		}
-		if err := fn(out, cur); err != nil {
+	for _, fn := range p.funcs {
+		if err := fn(regs); err != nil {
 			return err
 		}
-		spare, cur = cur[:cap(cur)], out
-	}
-	if len(p.funcs) == 0 {
-		copy(dst, cur)
 	}
 	return nil
 }
@@ -169,11 +162,11 @@ func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
 	}
 	s := p.scratch.Get().(*rowScratch)
 	defer p.scratch.Put(s)
-	if err := p.apply(s, s.out, src); err != nil {
+	if err := p.run(s.regs, src); err != nil {
 		return err
 	}
-	for i, c := range s.out {
-		dst[i] = c.Num
+	for i, k := range p.outSlots {
+		dst[i] = s.regs[k].Num
 	}
 	return nil
 }
@@ -216,12 +209,12 @@ func (p *Plan) TransformInto(dst []float64, data *tabprep.Frame) error {
 				src[i].Str = c.Level(r)
 			}
 		}
-		if err := p.apply(s, s.out, src); err != nil {
+		if err := p.run(s.regs, src); err != nil {
 			return fmt.Errorf("pipeline: plan: row %d: %w", r, err)
 		}
 		row := dst[r*w : (r+1)*w]
-		for i, c := range s.out {
-			row[i] = c.Num
+		for i, k := range p.outSlots {
+			row[i] = s.regs[k].Num
 		}
 	}
 	return nil

@@ -94,7 +94,7 @@ func TestDocumentRoundTrip(t *testing.T) {
 	require.False(t, steps[0].Invertible())
 	_, err = steps[0].Inverse(train)
 	require.ErrorIs(t, err, tabprep.ErrNotInvertible)
-	_, _, err = steps[0].RowKernel(train.Schema())
+	_, err = steps[0].RowKernel(tabprep.NewRowLayout(train.Schema()))
 	require.Error(t, err)
 	// Writing again gives the same bytes: the encoding is deterministic.
 	require.Equal(t, b, encode(t, got))

@@ -26,9 +26,10 @@ type Fitted interface {
 	// Inverse undoes Apply; it returns an error wrapping
 	// [tabprep.ErrNotInvertible] if the step has no inverse.
 	Inverse(data *tabprep.Frame) (*tabprep.Frame, error)
-	// RowKernel returns the row function of the step, or an error if the
-	// step cannot act on one row.
-	RowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error)
+	// RowKernel returns the row function of the step for rows laid out by
+	// l, which it updates to the step's output, or an error if the step
+	// cannot act on one row.
+	RowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error)
 }
 
 // Bound is the [Fitted] value of a step S with parameters P.
@@ -78,12 +79,12 @@ func (b *Bound[S, P]) Inverse(data *tabprep.Frame) (*tabprep.Frame, error) {
 }
 
 // RowKernel calls the step's RowKernel, if it has one.
-func (b *Bound[S, P]) RowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+func (b *Bound[S, P]) RowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	rk, ok := any(b.step).(tabprep.RowKernel[P])
 	if !ok {
-		return nil, tabprep.Schema{}, tabprep.Errorf(b.Kind(), tabprep.ErrOption, "", "step cannot act on a single row")
+		return nil, tabprep.Errorf(b.Kind(), tabprep.ErrOption, "", "step cannot act on a single row")
 	}
-	return rk.RowKernel(b.params, in)
+	return rk.RowKernel(b.params, l)
 }
 
 // decoder rebuilds a Fitted from its JSON spec and params.
