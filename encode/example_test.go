@@ -178,3 +178,42 @@ func ExampleBin() {
 	// [(-inf,2.75) [2.75,6.5) [6.5,15) [15,+inf)]
 	// days_ahead       (-inf,2.75) [2.75,6.5) [15,+inf)     NA
 }
+
+func ExampleParseNumber() {
+	train := tabprep.MustFrame(tabprep.NewCategorical("distance_km", []string{"1.250,5", " 3,75 ", "unknown", "12"}))
+	step := encode.ParseNumber{Decimal: ",", Thousands: ".", Trim: true}
+	p, err := step.Fit(train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%d bad: %+v\n", p.Columns[0].BadCells, p.Columns[0].Samples)
+	out, err := step.Transform(p, train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	printFrame(out)
+	// Output:
+	// 1 bad: [{Row:2 Value:unknown}]
+	// distance_km      1.25e+03   3.75    NaN     12
+}
+
+func ExampleParseTime() {
+	train := tabprep.MustFrame(tabprep.NewCategorical("booked_on", []string{"2024-03-04 09:15", "2024-03-09 17:40", ""}))
+	step := encode.ParseTime{Layout: "2006-01-02 15:04", Parts: []encode.TimePart{encode.PartWeekday, encode.PartHour}}
+	p, err := step.Fit(train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	out, err := step.Transform(p, train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	printFrame(out)
+	// Output:
+	// booked_on.weekday      1      6    NaN
+	// booked_on.hour        9     17    NaN
+}
