@@ -413,3 +413,9 @@ func (s Target) Transform(p TargetParams, data *tabprep.Frame) (*tabprep.Frame, 
 	}
 	return assemble(op, data, outs)
 }
+
+// Targets returns the target column, which a pipeline hands this step at
+// fit and keeps out of its input and output (see [tabprep.Supervised]).
+func (s Target) Targets() []string { return []string{s.Target} }
+
+var _ tabprep.Supervised = Target{}
