@@ -85,3 +85,13 @@ type OutOfFold[P any] interface {
 	// transformed with values computed out of fold.
 	FitOutOfFold(train *Frame) (P, *Frame, error)
 }
+
+// Supervised is implemented by steps that learn from target columns, such
+// as target encoding. A pipeline gives such a step the target columns when
+// it fits, and keeps them out of every other step, its input schema and its
+// output, so that new rows need not carry the target and no other step
+// fits on it by accident.
+type Supervised interface {
+	// Targets returns the names of the target columns the step reads at fit.
+	Targets() []string
+}

@@ -257,3 +257,23 @@ func checkOption[T ~string](op, field string, v T, allowed ...T) error {
 	}
 	return tabprep.Errorf(op, tabprep.ErrOption, "", "%s %q: use one of %q", field, v, allowed)
 }
+
+// split wraps consecutive runs of n values of block as numeric columns with
+// the given names, without copying.
+func split(names []string, block []float64, n int) []*tabprep.Column {
+	cols := make([]*tabprep.Column, len(names))
+	for j, name := range names {
+		cols[j] = tabprep.AdoptNumeric(name, block[j*n:(j+1)*n:(j+1)*n])
+	}
+	return cols
+}
+
+// sourceNames returns the source column name of each fitted column: the
+// outputs of a step that replaces its sources in place.
+func sourceNames[T any](cols []T, name func(T) string) []string {
+	out := make([]string, len(cols))
+	for i, c := range cols {
+		out[i] = name(c)
+	}
+	return out
+}

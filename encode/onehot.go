@@ -248,11 +248,7 @@ func (s OneHot) Transform(p OneHotParams, data *tabprep.Frame) (*tabprep.Frame, 
 					"level %q was not seen in training; the step's Unseen policy is %q: use %q or %q to accept it", c.Levels()[k], UnseenError, UnseenZeros, UnseenOther).AtRow(row)
 			}
 		}
-		cols := make([]*tabprep.Column, len(names))
-		for j, name := range names {
-			cols[j] = tabprep.AdoptNumeric(name, block[j*n:(j+1)*n:(j+1)*n])
-		}
-		outs[ci] = encoded{source: oc.Name, cols: cols}
+		outs[ci] = encoded{source: oc.Name, cols: split(names, block, n)}
 	}
 	return assemble(op, data, outs)
 }

@@ -54,11 +54,7 @@ func (Ordinal) Kind() string { return "encode.ordinal" }
 // Outputs returns the names of the columns the step writes: the source
 // names, replaced in place.
 func (p OrdinalParams) Outputs() []string {
-	out := make([]string, len(p.Columns))
-	for i, c := range p.Columns {
-		out[i] = c.Name
-	}
-	return out
+	return sourceNames(p.Columns, func(c OrdinalColumn) string { return c.Name })
 }
 
 // Fit fixes the code of each level of each selected column.

@@ -369,24 +369,13 @@ func (s Target) FitOutOfFold(train *tabprep.Frame) (TargetParams, *tabprep.Frame
 				}
 			}
 		}
-		outs[col] = encoded{source: name, cols: pr.params.columns(name, blocks, n)}
+		outs[col] = encoded{source: name, cols: split(pr.params.names(name), blocks, n)}
 	}
 	out, err := assemble(op, train, outs)
 	if err != nil {
 		return TargetParams{}, nil, err
 	}
 	return pr.params, out, nil
-}
-
-// columns wraps a block of n rows per output column as the output columns
-// of source.
-func (p TargetParams) columns(source string, block []float64, n int) []*tabprep.Column {
-	names := p.names(source)
-	cols := make([]*tabprep.Column, len(names))
-	for j, name := range names {
-		cols[j] = tabprep.AdoptNumeric(name, block[j*n:(j+1)*n:(j+1)*n])
-	}
-	return cols
 }
 
 // Transform encodes each fitted column with the full-train values. The
@@ -420,7 +409,13 @@ func (s Target) Transform(p TargetParams, data *tabprep.Frame) (*tabprep.Frame, 
 				block[j*n+row] = x
 			}
 		}
-		outs[ci] = encoded{source: tc.Name, cols: p.columns(tc.Name, block, n)}
+		outs[ci] = encoded{source: tc.Name, cols: split(p.names(tc.Name), block, n)}
 	}
 	return assemble(op, data, outs)
 }
+
+// Targets returns the target column, which a pipeline hands this step at
+// fit and keeps out of its input and output (see [tabprep.Supervised]).
+func (s Target) Targets() []string { return []string{s.Target} }
+
+var _ tabprep.Supervised = Target{}

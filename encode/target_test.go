@@ -66,7 +66,8 @@ func TestTargetCategoricalTarget(t *testing.T) {
 		tabprep.NewCategorical("outcome", []string{"came", "came", "came"}),
 	)
 	out := roundTrip(t, pipeline.Use(s), train, data)
-	require.Equal(t, []string{"outcome", "species@came", "species@late", "species@no_show"}, out.Names())
+	// The pipeline keeps the target out of its output (tabprep.Supervised).
+	require.Equal(t, []string{"species@came", "species@late", "species@no_show"}, out.Names())
 	require.Equal(t, 1.0/6, column(t, out, "species@late")[1], "unseen gets the prior")
 }
 
@@ -145,11 +146,14 @@ func TestTargetLeakGuard(t *testing.T) {
 	require.Greater(t, rNaive, 0.3)
 
 	// The pipeline's own fit hands the out-of-fold values on, and keeps the
-	// full-train parameters for new data.
+	// full-train parameters for new data. The target is kept out of the
+	// pipeline's output (tabprep.Supervised).
 	require.Equal(t, p, fitted.Step(0).Params())
 	fresh, err := fitted.Transform(train)
 	require.NoError(t, err)
-	require.True(t, tabprep.Equal(naive, fresh))
+	naiveFeatures, err := naive.Without("no_show")
+	require.NoError(t, err)
+	require.True(t, tabprep.Equal(naiveFeatures, fresh))
 }
 
 // TestTargetOwnRowNeverCounts is the leak guard as an invariant: a training
@@ -176,5 +180,7 @@ func TestTargetOwnRowNeverCounts(t *testing.T) {
 func TestTargetSaveLoad(t *testing.T) {
 	s := encode.Target{Target: "no_show", K: 1, F: 2, Folds: 2, Seed: 1}
 	out := roundTrip(t, pipeline.Use(s), clinicTrain(), clinicNew(t))
-	require.Equal(t, []string{"clinic", "species", "days_ahead", "no_show"}, out.Names())
+	// The pipeline keeps the target out of its output, and new rows need
+	// not carry it (tabprep.Supervised).
+	require.Equal(t, []string{"clinic", "species", "days_ahead"}, out.Names())
 }

@@ -11,7 +11,9 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/pipeline"
+	"github.com/tabprep/tabprep/scale"
 	"github.com/tabprep/tabprep/state"
 )
 
@@ -349,4 +351,32 @@ func slicesIndex(s []string, v string) int {
 		}
 	}
 	return -1
+}
+
+// TestTargetsStayOut checks that a target column reaches only the step that
+// learns from it: a step choosing every numeric column does not scale it, the
+// fitted input schema lacks it, and new rows without it transform.
+func TestTargetsStayOut(t *testing.T) {
+	train := tabprep.MustFrame(
+		tabprep.NewCategorical("clinic", []string{"a", "b", "a", "b", "a", "b"}),
+		tabprep.NewNumeric("days_ahead", []float64{1, 5, 2, 8, 3, 4}),
+		tabprep.NewNumeric("no_show", []float64{0, 1, 0, 1, 1, 0}),
+	)
+	p := pipeline.New(
+		pipeline.Use(encode.Target{Columns: tabprep.Names("clinic"), Target: "no_show", K: 1, Folds: 2}),
+		pipeline.Use(scale.ZScore{}),
+	)
+	fp, err := p.Fit(train)
+	require.NoError(t, err)
+	require.Equal(t, []string{"clinic", "days_ahead"}, fp.Input().Names())
+	require.Equal(t, []string{"clinic", "days_ahead"}, fp.Step(1).Params().(scale.ZScoreParams).Columns)
+	fresh, err := train.Without("no_show")
+	require.NoError(t, err)
+	out, err := fp.Transform(fresh)
+	require.NoError(t, err)
+	require.Equal(t, []string{"clinic", "days_ahead"}, out.Names())
+
+	_, err = pipeline.New(pipeline.Use(encode.Target{Target: "outcome"})).Fit(fresh)
+	require.ErrorIs(t, err, tabprep.ErrNoColumn)
+	require.ErrorContains(t, err, `pipeline: step 0 (encode.target) learns from target column "outcome", which train lacks`)
 }
