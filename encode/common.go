@@ -177,73 +177,62 @@ func assemble(op string, data *tabprep.Frame, outs []encoded) (*tabprep.Frame, e
 	return base.With(cols...)
 }
 
-// layout is the plan of a row kernel: where each output cell comes from.
-type layout struct {
-	out  tabprep.Schema
-	pass [][2]int // {dst, src} of each column copied through
-	at   []int    // per source: input position
-	to   []int    // per source: first output position
-}
-
-// arrange lays out a row kernel's output the way [assemble] lays out a
-// frame. fields[i] are the output fields of sources[i]; each source must be
-// in `in` with kind want.
-func arrange(op string, in tabprep.Schema, sources []string, want tabprep.Kind, fields [][]tabprep.Field) (layout, error) {
-	var l layout
-	replaced := make(map[string]int, len(sources))
-	dropped := make(map[string]bool, len(sources))
-	l.at = make([]int, len(sources))
-	l.to = make([]int, len(sources))
+// arrange records in l what an encoder does to a row, the way [assemble]
+// lays out a frame: a source with one output of its own name is rewritten
+// in its slot; any other source is dropped and its outputs are appended, in
+// source order, in fresh consecutive slots. fields[i] are the output fields
+// of sources[i]; each source must be in l with kind want. It returns, per
+// source, the slot it is read from, its levels in the layout (codes index
+// them), and the first slot of its outputs.
+func arrange(op string, l *tabprep.RowLayout, sources []string, want tabprep.Kind, fields [][]tabprep.Field) (at []int, levels [][]string, to []int, err error) {
+	at, to, levels = make([]int, len(sources)), make([]int, len(sources)), make([][]string, len(sources))
 	for i, s := range sources {
-		j := in.Index(s)
-		if j < 0 {
-			return l, tabprep.Errorf(op, tabprep.ErrNoColumn, s, "fitted on this column, but the row schema lacks it; it has %q", in.Names())
+		slot, f, ok := l.Slot(s)
+		if !ok {
+			return nil, nil, nil, tabprep.Errorf(op, tabprep.ErrNoColumn, s, "fitted on this column, but the row layout lacks it; it has %q", l.Schema().Names())
 		}
-		if in.Columns[j].Kind != want {
-			return l, tabprep.Errorf(op, tabprep.ErrKind, s, "is %v in the row schema, want %v", in.Columns[j].Kind, want)
+		if f.Kind != want {
+			return nil, nil, nil, tabprep.Errorf(op, tabprep.ErrKind, s, "is %v in the row layout, want %v", f.Kind, want)
 		}
-		l.at[i] = j
+		at[i], levels[i] = slot, f.Levels
+	}
+	for i, s := range sources {
 		if len(fields[i]) == 1 && fields[i][0].Name == s {
-			replaced[s] = i
+			to[i], _ = l.Set(s, fields[i][0])
 		} else {
-			dropped[s] = true
+			l.Remove(s)
 		}
-	}
-	for j, f := range in.Columns {
-		if dropped[f.Name] {
-			continue
-		}
-		if i, ok := replaced[f.Name]; ok {
-			l.to[i] = len(l.out.Columns)
-			l.out.Columns = append(l.out.Columns, fields[i][0])
-			continue
-		}
-		l.pass = append(l.pass, [2]int{len(l.out.Columns), j})
-		l.out.Columns = append(l.out.Columns, f)
 	}
 	for i, s := range sources {
-		if !dropped[s] {
+		if len(fields[i]) == 1 && fields[i][0].Name == s {
 			continue
 		}
-		l.to[i] = len(l.out.Columns)
-		l.out.Columns = append(l.out.Columns, fields[i]...)
+		for j, f := range fields[i] {
+			slot := l.Add(f)
+			if j == 0 {
+				to[i] = slot
+			}
+		}
 	}
-	if err := l.out.Validate(); err != nil {
-		return l, tabprep.Errorf(op, tabprep.ErrName, "", "output row schema: %v; rename the clashing input column", err)
+	if err := l.Schema().Validate(); err != nil {
+		return nil, nil, nil, tabprep.Errorf(op, tabprep.ErrName, "", "output row layout: %v; rename the clashing input column", err)
 	}
-	return l, nil
+	return at, levels, to, nil
 }
 
-// copyThrough copies the passed-through cells of a row and checks the row
-// lengths against the layout.
-func (l *layout) copyThrough(op string, dst, src []tabprep.Cell, inLen int) error {
-	if len(src) != inLen || len(dst) != len(l.out.Columns) {
-		return errRowShape(op, len(src), inLen, len(dst), len(l.out.Columns))
+// byCode returns, for each level of a layout, what index gives for it, or
+// unseen for a level index lacks: a table a kernel reads with a cell's Code
+// in place of a string lookup.
+func byCode(levels []string, index map[string]int32, unseen int32) []int32 {
+	t := make([]int32, len(levels))
+	for k, lv := range levels {
+		v, ok := index[lv]
+		if !ok {
+			v = unseen
+		}
+		t[k] = v
 	}
-	for _, p := range l.pass {
-		dst[p[0]] = src[p[1]]
-	}
-	return nil
+	return t
 }
 
 func errRowShape(op string, src, wantSrc, dst, wantDst int) error {

@@ -87,31 +87,45 @@ func requireKernelMatches(t *testing.T, fn tabprep.RowFunc, out tabprep.Schema, 
 	}
 }
 
-// kernelStep is a step with a row kernel.
-type kernelStep[P any] interface {
-	tabprep.Step[P]
-	tabprep.RowKernel[P]
+// requireKernel fits s on the demo train rows, checks its compiled row
+// kernel against its batch transform on the new rows, bit for bit and with
+// no allocation per row, and returns the parameters.
+func requireKernel[S tabprep.Step[P], P any](t *testing.T, s S) P {
+	t.Helper()
+	fitted, _ := steptest.RowsMatch(t, clinicTrain(), clinicNew(t), pipeline.Use(s))
+	return fitted.Step(0).Params().(P)
 }
 
-// requireKernel fits s on the demo train rows, checks its row kernel against
-// its batch transform on the new rows, and checks that a row allocates
-// nothing. It returns the parameters.
-func requireKernel[P any](t *testing.T, s kernelStep[P]) P {
-	t.Helper()
-	p, err := s.Fit(clinicTrain())
-	require.NoError(t, err)
-	data := clinicNew(t)
-	batch, err := s.Transform(p, data)
-	require.NoError(t, err)
-	fn, out, err := s.RowKernel(p, data.Schema())
-	require.NoError(t, err)
-	requireKernelMatches(t, fn, out, data, batch)
-	dst := make([]tabprep.Cell, len(out.Columns))
-	for i := 0; i < data.NumRows(); i++ {
-		src := rowCells(data, i, nil)
-		require.Zero(t, testing.AllocsPerRun(50, func() { _ = fn(dst, src) }), "row %d allocates", i)
+// kernelOf compiles the row kernel of s with p for rows of schema in, and
+// returns a function that runs one row through it as a plan would.
+func kernelOf[P any](s tabprep.RowKernel[P], p P, in tabprep.Schema) (func(row []tabprep.Cell) error, error) {
+	l := tabprep.NewRowLayout(in)
+	fn, err := s.RowKernel(p, l)
+	if err != nil {
+		return nil, err
 	}
-	return p
+	regs := make([]tabprep.Cell, l.Slots())
+	return func(row []tabprep.Cell) error {
+		copy(regs, row)
+		for i, f := range in.Columns {
+			if f.Kind == tabprep.Categorical {
+				regs[i].Code = codeOf(f.Levels, row[i].Str)
+			}
+		}
+		return fn(regs)
+	}, nil
+}
+
+func codeOf(levels []string, s string) int32 {
+	if s == "" {
+		return tabprep.MissingCode
+	}
+	for i, l := range levels {
+		if l == s {
+			return int32(i)
+		}
+	}
+	return tabprep.UnseenCode
 }
 
 func column(t *testing.T, f *tabprep.Frame, name string) []float64 {

@@ -256,54 +256,54 @@ func (s OneHot) Transform(p OneHotParams, data *tabprep.Frame) (*tabprep.Frame, 
 // RowKernel returns a row function that writes the same cells as
 // [OneHot.Transform], without allocating: each level's output position is
 // looked up once per cell in a map built here.
-func (s OneHot) RowKernel(p OneHotParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "encode.onehot row"
 	sources := make([]string, len(p.Columns))
 	fields := make([][]tabprep.Field, len(p.Columns))
-	type plan struct {
-		index          map[string]int32
-		missing, width int32
-		unseen         int32
-	}
-	plans := make([]plan, len(p.Columns))
 	for i, oc := range p.Columns {
 		sources[i] = oc.Name
 		for _, name := range oc.Names() {
 			fields[i] = append(fields[i], tabprep.Field{Name: name, Kind: tabprep.Numeric})
 		}
-		index, other, missing := oc.slots()
-		plans[i] = plan{index: index, missing: missing, width: int32(len(fields[i])), unseen: s.unseenSlot(other)}
 	}
-	l, err := arrange(op, in, sources, tabprep.Categorical, fields)
+	at, levels, to, err := arrange(op, l, sources, tabprep.Categorical, fields)
 	if err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	inLen := len(in.Columns)
-	fn := func(dst, src []tabprep.Cell) error {
-		if err := l.copyThrough(op, dst, src, inLen); err != nil {
-			return err
-		}
+	type plan struct {
+		from, to, width int
+		table           []int32 // by layout code: output offset, -1 none, -2 error
+		missing, unseen int32
+	}
+	plans := make([]plan, len(p.Columns))
+	for i, oc := range p.Columns {
+		index, other, missing := oc.slots()
+		unseen := s.unseenSlot(other)
+		plans[i] = plan{from: at[i], to: to[i], width: len(fields[i]), table: byCode(levels[i], index, unseen), missing: missing, unseen: unseen}
+	}
+	fn := func(regs []tabprep.Cell) error {
 		for i := range plans {
 			pl := &plans[i]
-			out := dst[l.to[i] : l.to[i]+int(pl.width)]
-			for j := range out {
-				out[j] = tabprep.Cell{}
+			c := &regs[pl.from]
+			j := pl.unseen
+			switch {
+			case c.Code >= 0:
+				j = pl.table[c.Code]
+			case c.Code == tabprep.MissingCode:
+				j = pl.missing
 			}
-			v := src[l.at[i]].Str
-			j := pl.missing
-			if v != "" {
-				var ok bool
-				if j, ok = pl.index[v]; !ok {
-					j = pl.unseen
-				}
+			if j == -2 {
+				return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training; the step's Unseen policy is %q", c.Str, UnseenError)
+			}
+			out := regs[pl.to : pl.to+pl.width]
+			for k := range out {
+				out[k] = tabprep.Cell{}
 			}
 			if j >= 0 {
 				out[j].Num = 1
-			} else if j == -2 {
-				return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training; the step's Unseen policy is %q", v, UnseenError)
 			}
 		}
 		return nil
 	}
-	return fn, l.out, nil
+	return fn, nil
 }

@@ -137,46 +137,49 @@ func (s Ordinal) Transform(p OrdinalParams, data *tabprep.Frame) (*tabprep.Frame
 
 // RowKernel returns a row function that writes the same cells as
 // [Ordinal.Transform], without allocating.
-func (s Ordinal) RowKernel(p OrdinalParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "encode.ordinal row"
 	unseen, unseenOK := s.fallback(s.UnseenCode)
 	missing, missingOK := s.fallback(s.MissingCode)
 	sources := make([]string, len(p.Columns))
 	fields := make([][]tabprep.Field, len(p.Columns))
-	codes := make([]map[string]int32, len(p.Columns))
 	for i, oc := range p.Columns {
 		sources[i] = oc.Name
 		fields[i] = []tabprep.Field{{Name: oc.Name, Kind: tabprep.Numeric}}
-		codes[i] = indexOf(oc.Levels)
 	}
-	l, err := arrange(op, in, sources, tabprep.Categorical, fields)
+	at, levels, _, err := arrange(op, l, sources, tabprep.Categorical, fields)
 	if err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	inLen := len(in.Columns)
-	fn := func(dst, src []tabprep.Cell) error {
-		if err := l.copyThrough(op, dst, src, inLen); err != nil {
-			return err
-		}
-		for i, m := range codes {
-			v := src[l.at[i]].Str
-			var x float64
-			if v == "" {
+	const none = -1 // a layout level training never saw
+	tables := make([][]int32, len(p.Columns))
+	for i, oc := range p.Columns {
+		tables[i] = byCode(levels[i], indexOf(oc.Levels), none)
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for i, table := range tables {
+			c := &regs[at[i]]
+			k := int32(none)
+			switch {
+			case c.Code >= 0:
+				k = table[c.Code]
+			case c.Code == tabprep.MissingCode:
 				if !missingOK {
 					return tabprep.Errorf(op, tabprep.ErrValue, sources[i], "missing cell and no MissingCode; set MissingCode or fill the column first")
 				}
-				x = missing
-			} else if k, ok := m[v]; ok {
-				x = float64(k)
-			} else {
-				if !unseenOK {
-					return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training and no UnseenCode is set", v)
-				}
-				x = unseen
+				*c = tabprep.Cell{Num: missing}
+				continue
 			}
-			dst[l.to[i]] = tabprep.Cell{Num: x}
+			if k == none {
+				if !unseenOK {
+					return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training and no UnseenCode is set", c.Str)
+				}
+				*c = tabprep.Cell{Num: unseen}
+				continue
+			}
+			*c = tabprep.Cell{Num: float64(k)}
 		}
 		return nil
 	}
-	return fn, l.out, nil
+	return fn, nil
 }

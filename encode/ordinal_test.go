@@ -71,9 +71,8 @@ func TestOrdinalErrors(t *testing.T) {
 func TestOrdinalRowKernel(t *testing.T) {
 	p := requireKernel(t, encode.Ordinal{UnseenCode: encode.Code(-1), MissingCode: encode.Code(math.NaN())})
 	data := clinicNew(t)
-	fn, out, err := encode.Ordinal{}.RowKernel(p, data.Schema())
+	fn, err := kernelOf(encode.Ordinal{}, p, data.Schema())
 	require.NoError(t, err)
-	dst := make([]tabprep.Cell, len(out.Columns))
-	require.ErrorIs(t, fn(dst, rowCells(data, 1, nil)), encode.ErrUnseen)
-	require.ErrorIs(t, fn(dst, rowCells(data, 2, nil)), tabprep.ErrValue)
+	require.ErrorIs(t, fn(rowCells(data, 1, nil)), encode.ErrUnseen)
+	require.ErrorIs(t, fn(rowCells(data, 2, nil)), tabprep.ErrValue)
 }

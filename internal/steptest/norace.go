@@ -1,0 +1,5 @@
+//go:build !race
+
+package steptest
+
+const raceEnabled = false
