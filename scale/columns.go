@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/quantile"
 )
 
 // DomainRule says what a transform does with a value outside its domain.
@@ -47,11 +48,25 @@ func fitColumns(op string, train *tabprep.Frame, sel tabprep.Selection) ([]strin
 		}
 		cols[j] = c
 	}
+	if err := finite(op, names, cols); err != nil {
+		return nil, nil, err
+	}
 	return names, cols, nil
 }
 
 func allMissing(op, column string) *tabprep.Error {
 	return tabprep.Errorf(op, tabprep.ErrAllMissing, column, "every train value is missing; fill the column first or leave it out of Columns")
+}
+
+// present returns the non-missing values of x (x itself if it has none
+// missing).
+func present(x []float64) []float64 {
+	for _, v := range x {
+		if v != v {
+			return quantile.DropNaN(x)
+		}
+	}
+	return x
 }
 
 // dataColumns returns the named numeric columns of data, for a transform or
@@ -252,18 +267,65 @@ func (m *mapper) rowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, 
 	return fn, out, nil
 }
 
-// linearMapper returns the mapper of one affine map per column.
-func linearMapper(op string, names []string, maps []affine) *mapper {
-	return &mapper{op: op, names: names, linear: maps}
-}
-
-// inverseMapper returns the mapper of the inverses of maps.
-func inverseMapper(op string, names []string, maps []affine) *mapper {
+// linear returns the mapper of one affine map per column, or of their
+// inverses.
+func linear(op string, names []string, maps []affine, inverse bool) *mapper {
+	if !inverse {
+		return &mapper{op: op, names: names, linear: maps}
+	}
 	funcs := make([]func(float64) float64, len(maps))
 	for j, a := range maps {
 		funcs[j] = a.inverse
 	}
-	return &mapper{op: op, names: names, funcs: funcs, domain: "any finite number"}
+	return &mapper{op: op, names: names, funcs: funcs, domain: "values whose inverse is finite"}
+}
+
+// columnwise is implemented by the parameters of every step that maps each
+// column on its own; the steps' Transform, Inverse and RowKernel methods are
+// the functions below.
+type columnwise interface {
+	mapper(op string, inverse bool) (*mapper, error)
+}
+
+func transform(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, error) {
+	m, err := p.mapper(opName(kind, "transform"), false)
+	if err != nil {
+		return nil, err
+	}
+	return m.frame(data)
+}
+
+func invert(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, error) {
+	m, err := p.mapper(opName(kind, "inverse"), true)
+	if err != nil {
+		return nil, err
+	}
+	return m.frame(data)
+}
+
+func rowKernel(kind string, p columnwise, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	m, err := p.mapper(opName(kind, "row"), false)
+	if err != nil {
+		return nil, tabprep.Schema{}, err
+	}
+	return m.rowKernel(in)
+}
+
+// finite reports the first infinite value of the chosen train columns: no
+// fit learns from one.
+func finite(op string, names []string, cols []*tabprep.Column) error {
+	for j, c := range cols {
+		for i, v := range c.Float64s() {
+			if math.IsInf(v, 0) {
+				return notFinite(op, names[j], v).AtRow(i)
+			}
+		}
+	}
+	return nil
+}
+
+func notFinite(op, column string, v float64) *tabprep.Error {
+	return tabprep.Errorf(op, tabprep.ErrValue, column, "train value %v is not finite; make it missing (NaN) or drop the row before fitting", v)
 }
 
 func opName(kind, what string) string { return fmt.Sprintf("%s %s", kind, what) }
