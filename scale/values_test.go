@@ -322,7 +322,9 @@ func TestStepErrors(t *testing.T) {
 		fit  func(*tabprep.Frame, tabprep.Selection) error
 	}{
 		{"scale.minmax", func(f *tabprep.Frame, c tabprep.Selection) error { return second(scale.MinMax{Columns: c}.Fit(f)) }},
-		{"scale.decimal", func(f *tabprep.Frame, c tabprep.Selection) error { return second(scale.DecimalScaling{Columns: c}.Fit(f)) }},
+		{"scale.decimal", func(f *tabprep.Frame, c tabprep.Selection) error {
+			return second(scale.DecimalScaling{Columns: c}.Fit(f))
+		}},
 		{"scale.robust", func(f *tabprep.Frame, c tabprep.Selection) error { return second(scale.Robust{Columns: c}.Fit(f)) }},
 		{"scale.maxabs", func(f *tabprep.Frame, c tabprep.Selection) error { return second(scale.MaxAbs{Columns: c}.Fit(f)) }},
 		{"scale.rownorm", func(f *tabprep.Frame, c tabprep.Selection) error { return second(scale.RowNorm{Columns: c}.Fit(f)) }},
