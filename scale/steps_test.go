@@ -3,6 +3,7 @@ package scale_test
 import (
 	"fmt"
 	"math"
+	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -191,4 +192,64 @@ func TestInverseProperty(t *testing.T) {
 			t.Logf("%-24s worst inverse error %8.1f ulps (bound %v)", tc.name, worst[k], tc.ulps)
 		}
 	}
+}
+
+// TestConcurrentTransform: a fitted step is used by many goroutines at
+// once (run under -race) and each gets the same result.
+func TestConcurrentTransform(t *testing.T) {
+	frame := clinicFrame(t, 200, 13, true)
+	for _, tc := range allSteps {
+		t.Run(tc.name, func(t *testing.T) {
+			fitted, err := pipeline.New(tc.stage).Fit(frame.Train())
+			require.NoError(t, err)
+			want, err := fitted.Transform(frame)
+			require.NoError(t, err)
+			var wg sync.WaitGroup
+			results := make([]*tabprep.Frame, 8)
+			for g := range results {
+				wg.Go(func() {
+					results[g], _ = fitted.Transform(frame)
+				})
+			}
+			wg.Wait()
+			for _, got := range results {
+				require.True(t, tabprep.Equal(want, got))
+			}
+		})
+	}
+}
+
+// TestPipelineInverse: the pipeline's inverse over a run of invertible
+// steps gives back the input, as for a scaled regression target.
+func TestPipelineInverse(t *testing.T) {
+	frame := clinicFrame(t, 300, 14, false)
+	p := pipeline.New(
+		pipeline.Use(scale.Log1p{Columns: positive}),
+		pipeline.Use(scale.YeoJohnson{Columns: tabprep.Names("weight_change")}),
+		pipeline.Use(scale.ZScore{}),
+	)
+	fitted, err := p.Fit(frame)
+	require.NoError(t, err)
+	out, err := fitted.Transform(frame)
+	require.NoError(t, err)
+	back, err := fitted.Inverse(0, out)
+	require.NoError(t, err)
+	for i := range frame.NumCols() {
+		a, b := frame.Col(i), back.Col(i)
+		if a.Kind() != tabprep.Numeric {
+			continue
+		}
+		for r, v := range a.Float64s() {
+			if v != v {
+				require.True(t, math.IsNaN(b.Value(r)))
+				continue
+			}
+			require.InDelta(t, v, b.Value(r), 1e-12*max(1, math.Abs(v)), "%s row %d", a.Name(), r)
+		}
+	}
+	// A row normalisation cannot be undone, and the pipeline says so.
+	withNorm, err := pipeline.New(pipeline.Use(scale.ZScore{}), pipeline.Use(scale.RowNorm{})).Fit(frame)
+	require.NoError(t, err)
+	_, err = withNorm.Inverse(0, out)
+	require.ErrorIs(t, err, tabprep.ErrNotInvertible)
 }
