@@ -76,7 +76,7 @@ func (p DecimalScalingParams) mapper(op string, inverse bool) (*mapper, error) {
 		if e < -300 || e > 300 {
 			return nil, tabprep.Errorf(op, tabprep.ErrOption, p.Columns[j], "exponent %d outside [-300, 300]; refit the step", e)
 		}
-		maps[j] = affine{scale: math.Pow10(e)}
+		maps[j] = affine{scale: math.Pow10(e), divide: true}
 	}
 	return linear(op, p.Columns, maps, inverse), nil
 }

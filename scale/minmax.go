@@ -91,7 +91,9 @@ func (p MinMaxParams) mapper(op string, inverse bool) (*mapper, error) {
 	}
 	maps := make([]affine, len(p.Columns))
 	for j := range maps {
-		m := affine{center: p.Min[j], scale: (p.Max[j] - p.Min[j]) / (b - a), offset: a, clip: p.Clip, lo: a, hi: b}
+		// Dividing keeps the train minimum and maximum on the ends of the
+		// target [0, 1] exactly.
+		m := affine{center: p.Min[j], scale: (p.Max[j] - p.Min[j]) / (b - a), offset: a, clip: p.Clip, lo: a, hi: b, divide: true}
 		if p.Max[j] == p.Min[j] {
 			m.scale, m.offset = 1, a+(b-a)/2
 		}

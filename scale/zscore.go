@@ -15,6 +15,9 @@ func init() { state.Register(ZScore{}) }
 //
 //	z = (x − mean) / std
 //
+// computed as (x − mean)·(1/std), within about an ulp of the quotient and
+// several times faster on large columns.
+//
 // The default std is the sample standard deviation, with denominator n−1:
 // the train rows are a sample of the rows the model will meet, n−1 makes
 // the variance estimate unbiased for that population, and it is the value
