@@ -171,6 +171,7 @@ type mapper struct {
 	linear  []affine // when set, used instead of funcs for whole columns
 	domain  string   // the accepted values, for errors
 	lenient bool     // out-of-domain values become missing
+	strict  bool     // the step has no OutOfDomain option to suggest
 }
 
 func outside(x, y float64) bool {
@@ -178,6 +179,9 @@ func outside(x, y float64) bool {
 }
 
 func (m *mapper) domainError(j int, x float64) *tabprep.Error {
+	if m.strict {
+		return tabprep.Errorf(m.op, tabprep.ErrValue, m.names[j], "value %v is outside the domain (%s); correct or remove it", x, m.domain)
+	}
 	return tabprep.Errorf(m.op, tabprep.ErrValue, m.names[j],
 		"value %v is outside the domain (%s); correct or remove it, or set OutOfDomain to scale.DomainMissing to make such cells missing", x, m.domain)
 }
@@ -286,7 +290,7 @@ func linear(op string, names []string, maps []affine, inverse bool) *mapper {
 	for j, a := range maps {
 		funcs[j] = a.inverse
 	}
-	return &mapper{op: op, names: names, funcs: funcs, domain: "values whose inverse is finite"}
+	return &mapper{op: op, names: names, funcs: funcs, domain: "values whose inverse is finite", strict: true}
 }
 
 // columnwise is implemented by the parameters of every step that maps each

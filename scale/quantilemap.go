@@ -155,7 +155,7 @@ func (p QuantileParams) mapper(op string, inverse bool) (*mapper, error) {
 	}
 	normal := p.Output == OutputNormal
 	m := &mapper{op: op, names: p.Columns, funcs: make([]func(float64) float64, len(p.Columns)),
-		domain: "the inverse of a uniform output needs 0 ≤ u ≤ 1"}
+		domain: "the inverse of a uniform output needs 0 ≤ u ≤ 1", strict: true}
 	for j, qs := range p.Quantiles {
 		q := curve(qs)
 		if len(q) < 2 || !slices.IsSorted(q) || math.IsNaN(q[0]) || math.IsInf(q[0], 0) || math.IsInf(q[len(q)-1], 0) {
