@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/quantile"
 )
 
 // DomainRule says what a transform does with a value outside its domain.
@@ -47,11 +48,25 @@ func fitColumns(op string, train *tabprep.Frame, sel tabprep.Selection) ([]strin
 		}
 		cols[j] = c
 	}
+	if err := finite(op, names, cols); err != nil {
+		return nil, nil, err
+	}
 	return names, cols, nil
 }
 
 func allMissing(op, column string) *tabprep.Error {
 	return tabprep.Errorf(op, tabprep.ErrAllMissing, column, "every train value is missing; fill the column first or leave it out of Columns")
+}
+
+// present returns the non-missing values of x (x itself if it has none
+// missing).
+func present(x []float64) []float64 {
+	for _, v := range x {
+		if v != v {
+			return quantile.DropNaN(x)
+		}
+	}
+	return x
 }
 
 // dataColumns returns the named numeric columns of data, for a transform or
@@ -87,16 +102,24 @@ func checkWidths(op string, columns []string, lists ...int) error {
 
 // affine is the map y = (x − center)/scale + offset, then clipped to
 // [lo, hi] if clip is set. Every linear rescaling in the package is one.
-// Dividing by scale, rather than multiplying by its reciprocal, keeps
-// results such as −986/10³ = −0.986 correctly rounded.
+// The division is done as a multiplication by 1/scale, which is several
+// times faster (a division unit is slow and not pipelined) and differs from
+// the correctly rounded quotient by at most about an ulp; a step that
+// needs the quotient itself (decimal scaling, where −986/10³ must be
+// −0.986) sets divide.
 type affine struct {
 	center, scale, offset float64
-	clip                  bool
+	clip, divide          bool
 	lo, hi                float64
 }
 
 func (a affine) at(x float64) float64 {
-	y := (x-a.center)/a.scale + a.offset
+	var y float64
+	if a.divide {
+		y = (x-a.center)/a.scale + a.offset
+	} else {
+		y = (x-a.center)*(1/a.scale) + a.offset
+	}
 	if a.clip {
 		y = min(max(y, a.lo), a.hi)
 	}
@@ -106,24 +129,25 @@ func (a affine) at(x float64) float64 {
 func (a affine) inverse(y float64) float64 { return (y-a.offset)*a.scale + a.center }
 
 // apply writes a.at(src[i]) to dst[i]: the hot loop of every linear step,
-// kept free of calls so that it runs at memory speed.
+// kept free of calls and branches so that it runs at memory speed. It
+// gives the same bits as at.
 func (a affine) apply(dst, src []float64) {
 	dst = dst[:len(src)]
-	c, s, o := a.center, a.scale, a.offset
-	if a.clip {
+	if a.clip || a.divide {
 		for i, x := range src {
-			dst[i] = min(max((x-c)/s+o, a.lo), a.hi)
+			dst[i] = a.at(x)
 		}
 		return
 	}
+	c, r, o := a.center, 1/a.scale, a.offset
 	if o == 0 {
 		for i, x := range src {
-			dst[i] = (x - c) / s
+			dst[i] = (x - c) * r
 		}
 		return
 	}
 	for i, x := range src {
-		dst[i] = (x-c)/s + o
+		dst[i] = (x-c)*r + o
 	}
 }
 
@@ -147,6 +171,7 @@ type mapper struct {
 	linear  []affine // when set, used instead of funcs for whole columns
 	domain  string   // the accepted values, for errors
 	lenient bool     // out-of-domain values become missing
+	strict  bool     // the step has no OutOfDomain option to suggest
 }
 
 func outside(x, y float64) bool {
@@ -154,6 +179,9 @@ func outside(x, y float64) bool {
 }
 
 func (m *mapper) domainError(j int, x float64) *tabprep.Error {
+	if m.strict {
+		return tabprep.Errorf(m.op, tabprep.ErrValue, m.names[j], "value %v is outside the domain (%s); correct or remove it", x, m.domain)
+	}
 	return tabprep.Errorf(m.op, tabprep.ErrValue, m.names[j],
 		"value %v is outside the domain (%s); correct or remove it, or set OutOfDomain to scale.DomainMissing to make such cells missing", x, m.domain)
 }
@@ -252,18 +280,65 @@ func (m *mapper) rowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, 
 	return fn, out, nil
 }
 
-// linearMapper returns the mapper of one affine map per column.
-func linearMapper(op string, names []string, maps []affine) *mapper {
-	return &mapper{op: op, names: names, linear: maps}
-}
-
-// inverseMapper returns the mapper of the inverses of maps.
-func inverseMapper(op string, names []string, maps []affine) *mapper {
+// linear returns the mapper of one affine map per column, or of their
+// inverses.
+func linear(op string, names []string, maps []affine, inverse bool) *mapper {
+	if !inverse {
+		return &mapper{op: op, names: names, linear: maps}
+	}
 	funcs := make([]func(float64) float64, len(maps))
 	for j, a := range maps {
 		funcs[j] = a.inverse
 	}
-	return &mapper{op: op, names: names, funcs: funcs, domain: "any finite number"}
+	return &mapper{op: op, names: names, funcs: funcs, domain: "values whose inverse is finite", strict: true}
+}
+
+// columnwise is implemented by the parameters of every step that maps each
+// column on its own; the steps' Transform, Inverse and RowKernel methods are
+// the functions below.
+type columnwise interface {
+	mapper(op string, inverse bool) (*mapper, error)
+}
+
+func transform(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, error) {
+	m, err := p.mapper(opName(kind, "transform"), false)
+	if err != nil {
+		return nil, err
+	}
+	return m.frame(data)
+}
+
+func invert(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, error) {
+	m, err := p.mapper(opName(kind, "inverse"), true)
+	if err != nil {
+		return nil, err
+	}
+	return m.frame(data)
+}
+
+func rowKernel(kind string, p columnwise, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	m, err := p.mapper(opName(kind, "row"), false)
+	if err != nil {
+		return nil, tabprep.Schema{}, err
+	}
+	return m.rowKernel(in)
+}
+
+// finite reports the first infinite value of the chosen train columns: no
+// fit learns from one.
+func finite(op string, names []string, cols []*tabprep.Column) error {
+	for j, c := range cols {
+		for i, v := range c.Float64s() {
+			if math.IsInf(v, 0) {
+				return notFinite(op, names[j], v).AtRow(i)
+			}
+		}
+	}
+	return nil
+}
+
+func notFinite(op, column string, v float64) *tabprep.Error {
+	return tabprep.Errorf(op, tabprep.ErrValue, column, "train value %v is not finite; make it missing (NaN) or drop the row before fitting", v)
 }
 
 func opName(kind, what string) string { return fmt.Sprintf("%s %s", kind, what) }

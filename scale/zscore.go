@@ -15,6 +15,9 @@ func init() { state.Register(ZScore{}) }
 //
 //	z = (x − mean) / std
 //
+// computed as (x − mean)·(1/std), within about an ulp of the quotient and
+// several times faster on large columns.
+//
 // The default std is the sample standard deviation, with denominator n−1:
 // the train rows are a sample of the rows the model will meet, n−1 makes
 // the variance estimate unbiased for that population, and it is the value
@@ -61,7 +64,7 @@ func (s ZScore) Fit(train *tabprep.Frame) (ZScoreParams, error) {
 	return acc.Finish()
 }
 
-func (p ZScoreParams) maps(op string) ([]affine, error) {
+func (p ZScoreParams) mapper(op string, inverse bool) (*mapper, error) {
 	if err := checkWidths(op, p.Columns, len(p.Mean), len(p.Std)); err != nil {
 		return nil, err
 	}
@@ -69,37 +72,22 @@ func (p ZScoreParams) maps(op string) ([]affine, error) {
 	for j := range maps {
 		maps[j] = affine{center: p.Mean[j], scale: divisor(p.Std[j])}
 	}
-	return maps, nil
+	return linear(op, p.Columns, maps, inverse), nil
 }
 
 // Transform returns data with each fitted column replaced by its z-scores.
 func (s ZScore) Transform(p ZScoreParams, data *tabprep.Frame) (*tabprep.Frame, error) {
-	op := opName(s.Kind(), "transform")
-	maps, err := p.maps(op)
-	if err != nil {
-		return nil, err
-	}
-	return linearMapper(op, p.Columns, maps).frame(data)
+	return transform(s.Kind(), p, data)
 }
 
 // Inverse maps z-scores back: x = z·std + mean.
 func (s ZScore) Inverse(p ZScoreParams, data *tabprep.Frame) (*tabprep.Frame, error) {
-	op := opName(s.Kind(), "inverse")
-	maps, err := p.maps(op)
-	if err != nil {
-		return nil, err
-	}
-	return inverseMapper(op, p.Columns, maps).frame(data)
+	return invert(s.Kind(), p, data)
 }
 
 // RowKernel returns the z-score of one row, for rows laid out by in.
 func (s ZScore) RowKernel(p ZScoreParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	op := opName(s.Kind(), "row")
-	maps, err := p.maps(op)
-	if err != nil {
-		return nil, tabprep.Schema{}, err
-	}
-	return linearMapper(op, p.Columns, maps).rowKernel(in)
+	return rowKernel(s.Kind(), p, in)
 }
 
 // Accumulator returns an empty accumulator that fits the z-score chunk by
@@ -193,7 +181,16 @@ func (a *zscoreAcc) Add(chunk *tabprep.Frame) error {
 		return err
 	}
 	for j, c := range cols {
-		a.spreads[j] = mergeSpread(a.spreads[j], spreadOf(c.Float64s()))
+		s := spreadOf(c.Float64s())
+		if math.IsInf(s.Mean, 0) || math.IsNaN(s.Mean) || math.IsInf(s.M2, 0) {
+			// Rare, so looked into only now: an infinite value, or
+			// values so large that their squares overflow.
+			if err := finite(op, a.names[j:j+1], cols[j:j+1]); err != nil {
+				return err
+			}
+			return tabprep.Errorf(op, tabprep.ErrValue, a.names[j], "the sum of squares overflows float64; rescale the column (divide it by a power of ten) first")
+		}
+		a.spreads[j] = mergeSpread(a.spreads[j], s)
 	}
 	return nil
 }
