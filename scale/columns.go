@@ -3,7 +3,6 @@ package scale
 import (
 	"fmt"
 	"math"
-	"slices"
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/internal/quantile"
@@ -233,39 +232,35 @@ func (m *mapper) check(data *tabprep.Frame) error {
 }
 
 // rowKernel returns a row function that copies src to dst by position and
-// maps the fitted columns, for rows laid out by in.
-func (m *mapper) rowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	pos := make([]int, len(m.names))
-	for j, n := range m.names {
-		i := in.Index(n)
-		if i < 0 {
-			return nil, tabprep.Schema{}, tabprep.Errorf(m.op, tabprep.ErrSchema, n, "fitted on this column, which the row layout lacks")
-		}
-		if in.Columns[i].Kind != tabprep.Numeric {
-			return nil, tabprep.Schema{}, tabprep.Errorf(m.op, tabprep.ErrKind, n, "is %v in the row layout; the step was fitted on a numeric column", in.Columns[i].Kind)
-		}
-		pos[j] = i
-	}
-	funcs := m.funcs
-	if m.linear != nil {
-		funcs = make([]func(float64) float64, len(m.linear))
-		for j, a := range m.linear {
-			funcs[j] = a.at
-		}
-	}
-	width := len(in.Columns)
-	out := tabprep.Schema{Columns: slices.Clone(in.Columns)}
-	for i := range out.Columns {
-		out.Columns[i].Levels = slices.Clone(in.Columns[i].Levels)
+// maps the fitted columns, for rows laid out by l.
+func (m *mapper) rowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	slots, err := m.slots(l)
+	if err != nil {
+		return nil, err
 	}
 	mm := *m
-	fn := func(dst, src []tabprep.Cell) error {
-		if len(src) != width || len(dst) != width {
-			return tabprep.Errorf(mm.op, tabprep.ErrLength, "", "row of %d cells into %d; the layout has %d", len(src), len(dst), width)
-		}
-		copy(dst, src)
-		for j, p := range pos {
-			x := src[p].Num
+	if m.linear != nil {
+		// The common affine case, inlined: no call per cell.
+		maps := m.linear
+		return func(regs []tabprep.Cell) error {
+			for j, k := range slots {
+				x := regs[k].Num
+				y := maps[j].at(x)
+				if outside(x, y) {
+					if !mm.lenient {
+						return mm.domainError(j, x)
+					}
+					y = math.NaN()
+				}
+				regs[k].Num = y
+			}
+			return nil
+		}, nil
+	}
+	funcs := m.funcs
+	return func(regs []tabprep.Cell) error {
+		for j, k := range slots {
+			x := regs[k].Num
 			y := funcs[j](x)
 			if outside(x, y) {
 				if !mm.lenient {
@@ -273,11 +268,27 @@ func (m *mapper) rowKernel(in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, 
 				}
 				y = math.NaN()
 			}
-			dst[p].Num = y
+			regs[k].Num = y
 		}
 		return nil
+	}, nil
+}
+
+// slots returns the register slot of each of m's columns in l, which the
+// step rewrites in place.
+func (m *mapper) slots(l *tabprep.RowLayout) ([]int, error) {
+	slots := make([]int, len(m.names))
+	for j, n := range m.names {
+		k, f, ok := l.Slot(n)
+		if !ok {
+			return nil, tabprep.Errorf(m.op, tabprep.ErrSchema, n, "fitted on this column, which the row layout lacks")
+		}
+		if f.Kind != tabprep.Numeric {
+			return nil, tabprep.Errorf(m.op, tabprep.ErrKind, n, "is %v in the row layout; the step was fitted on a numeric column", f.Kind)
+		}
+		slots[j] = k
 	}
-	return fn, out, nil
+	return slots, nil
 }
 
 // linear returns the mapper of one affine map per column, or of their
@@ -316,12 +327,12 @@ func invert(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, err
 	return m.frame(data)
 }
 
-func rowKernel(kind string, p columnwise, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+func rowKernel(kind string, p columnwise, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	m, err := p.mapper(opName(kind, "row"), false)
 	if err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	return m.rowKernel(in)
+	return m.rowKernel(l)
 }
 
 // finite reports the first infinite value of the chosen train columns: no

@@ -91,9 +91,9 @@ func (s DecimalScaling) Inverse(p DecimalScalingParams, data *tabprep.Frame) (*t
 	return invert(s.Kind(), p, data)
 }
 
-// RowKernel returns the decimal scaling of one row, for rows laid out by in.
-func (s DecimalScaling) RowKernel(p DecimalScalingParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+// RowKernel returns the decimal scaling of one row, for rows laid out by l.
+func (s DecimalScaling) RowKernel(p DecimalScalingParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 var (

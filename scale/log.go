@@ -125,9 +125,9 @@ func (s Log) Inverse(p LogParams, data *tabprep.Frame) (*tabprep.Frame, error) {
 	return invert(s.Kind(), logOf(p), data)
 }
 
-// RowKernel returns the logarithm of one row, for rows laid out by in.
-func (s Log) RowKernel(p LogParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), logOf(p), in)
+// RowKernel returns the logarithm of one row, for rows laid out by l.
+func (s Log) RowKernel(p LogParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), logOf(p), l)
 }
 
 // Fit checks the chosen columns of train: each must have a value, and every
@@ -146,9 +146,9 @@ func (s Log1p) Inverse(p LogParams, data *tabprep.Frame) (*tabprep.Frame, error)
 	return invert(s.Kind(), log1pOf(p), data)
 }
 
-// RowKernel returns ln(1 + x) of one row, for rows laid out by in.
-func (s Log1p) RowKernel(p LogParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), log1pOf(p), in)
+// RowKernel returns ln(1 + x) of one row, for rows laid out by l.
+func (s Log1p) RowKernel(p LogParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), log1pOf(p), l)
 }
 
 var (

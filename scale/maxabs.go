@@ -79,9 +79,9 @@ func (s MaxAbs) Inverse(p MaxAbsParams, data *tabprep.Frame) (*tabprep.Frame, er
 	return invert(s.Kind(), p, data)
 }
 
-// RowKernel returns the max-abs scaling of one row, for rows laid out by in.
-func (s MaxAbs) RowKernel(p MaxAbsParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+// RowKernel returns the max-abs scaling of one row, for rows laid out by l.
+func (s MaxAbs) RowKernel(p MaxAbsParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 var (

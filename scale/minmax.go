@@ -114,9 +114,9 @@ func (s MinMax) Inverse(p MinMaxParams, data *tabprep.Frame) (*tabprep.Frame, er
 	return invert(s.Kind(), p, data)
 }
 
-// RowKernel returns the min-max map of one row, for rows laid out by in.
-func (s MinMax) RowKernel(p MinMaxParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+// RowKernel returns the min-max map of one row, for rows laid out by l.
+func (s MinMax) RowKernel(p MinMaxParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 var (

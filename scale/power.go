@@ -184,9 +184,9 @@ func (s BoxCox) Inverse(p PowerParams, data *tabprep.Frame) (*tabprep.Frame, err
 	return invert(s.Kind(), boxCoxOf(p), data)
 }
 
-// RowKernel returns the transform of one row, for rows laid out by in.
-func (s BoxCox) RowKernel(p PowerParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), boxCoxOf(p), in)
+// RowKernel returns the transform of one row, for rows laid out by l.
+func (s BoxCox) RowKernel(p PowerParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), boxCoxOf(p), l)
 }
 
 // Fit learns λ, and with Standardize the mean and standard deviation of
@@ -205,9 +205,9 @@ func (s YeoJohnson) Inverse(p PowerParams, data *tabprep.Frame) (*tabprep.Frame,
 	return invert(s.Kind(), yeoJohnsonOf(p), data)
 }
 
-// RowKernel returns the transform of one row, for rows laid out by in.
-func (s YeoJohnson) RowKernel(p PowerParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), yeoJohnsonOf(p), in)
+// RowKernel returns the transform of one row, for rows laid out by l.
+func (s YeoJohnson) RowKernel(p PowerParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), yeoJohnsonOf(p), l)
 }
 
 // boxCoxOf and yeoJohnsonOf bind PowerParams to a family for the shared

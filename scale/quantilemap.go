@@ -213,8 +213,8 @@ func (s Quantile) Inverse(p QuantileParams, data *tabprep.Frame) (*tabprep.Frame
 
 // RowKernel returns the quantile transform of one row, for rows laid out by
 // in.
-func (s Quantile) RowKernel(p QuantileParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+func (s Quantile) RowKernel(p QuantileParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 var (

@@ -99,9 +99,9 @@ func (s Robust) Inverse(p RobustParams, data *tabprep.Frame) (*tabprep.Frame, er
 	return invert(s.Kind(), p, data)
 }
 
-// RowKernel returns the robust scaling of one row, for rows laid out by in.
-func (s Robust) RowKernel(p RobustParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+// RowKernel returns the robust scaling of one row, for rows laid out by l.
+func (s Robust) RowKernel(p RobustParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 var (

@@ -138,46 +138,34 @@ func (s RowNorm) Transform(p RowNormParams, data *tabprep.Frame) (*tabprep.Frame
 	return data.With(adopted...)
 }
 
-// RowKernel returns the normalisation of one row, for rows laid out by in.
+// RowKernel returns the normalisation of one row, for rows laid out by l.
 // It needs no allocation per row for up to 64 chosen columns.
-func (s RowNorm) RowKernel(p RowNormParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+func (s RowNorm) RowKernel(p RowNormParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	op := opName(s.Kind(), "row")
 	if err := checkNorm(op, p.Norm); err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	// The layout checks and the copy are the identity mapper's.
-	ident := make([]func(float64) float64, len(p.Columns))
-	for j := range ident {
-		ident[j] = func(x float64) float64 { return x }
-	}
-	copyRow, out, err := (&mapper{op: op, names: p.Columns, funcs: ident}).rowKernel(in)
+	slots, err := (&mapper{op: op, names: p.Columns}).slots(l)
 	if err != nil {
-		return nil, tabprep.Schema{}, err
-	}
-	pos := make([]int, len(p.Columns))
-	for j, n := range p.Columns {
-		pos[j] = in.Index(n)
+		return nil, err
 	}
 	norm := p.Norm
-	fn := func(dst, src []tabprep.Cell) error {
-		if err := copyRow(dst, src); err != nil {
-			return err
-		}
+	fn := func(regs []tabprep.Cell) error {
 		var buf [64]float64
 		x := buf[:0]
-		if len(pos) > len(buf) {
-			x = make([]float64, 0, len(pos))
+		if len(slots) > len(buf) {
+			x = make([]float64, 0, len(slots))
 		}
-		for _, k := range pos {
-			x = append(x, dst[k].Num)
+		for _, k := range slots {
+			x = append(x, regs[k].Num)
 		}
 		normalise(norm, x)
-		for j, k := range pos {
-			dst[k].Num = x[j]
+		for j, k := range slots {
+			regs[k].Num = x[j]
 		}
 		return nil
 	}
-	return fn, out, nil
+	return fn, nil
 }
 
 var (

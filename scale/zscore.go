@@ -85,9 +85,9 @@ func (s ZScore) Inverse(p ZScoreParams, data *tabprep.Frame) (*tabprep.Frame, er
 	return invert(s.Kind(), p, data)
 }
 
-// RowKernel returns the z-score of one row, for rows laid out by in.
-func (s ZScore) RowKernel(p ZScoreParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return rowKernel(s.Kind(), p, in)
+// RowKernel returns the z-score of one row, for rows laid out by l.
+func (s ZScore) RowKernel(p ZScoreParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return rowKernel(s.Kind(), p, l)
 }
 
 // Accumulator returns an empty accumulator that fits the z-score chunk by
