@@ -196,3 +196,20 @@ func ExampleDropSparse() {
 	// Output:
 	// [reminder] [distance_km]
 }
+
+func ExampleKNearest() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("pet_age", []float64{1, 2, 8, 9}),
+		tabprep.NewNumeric("prior_no_shows", []float64{0, 0, 3, 5}),
+	)
+	step := impute.KNearest{K: 2}
+	p, _ := step.Fit(train)
+	batch := tabprep.MustFrame(
+		tabprep.NewNumeric("pet_age", []float64{8.5, 1.5}),
+		tabprep.NewNumeric("prior_no_shows", []float64{nan, nan}),
+	)
+	out, _ := step.Transform(p, batch)
+	fmt.Println(out.Col(1).Float64s(), "from", p.Rows, "reference rows")
+	// Output:
+	// [4 0] from 4 reference rows
+}
