@@ -39,7 +39,7 @@ import (
 type Chained struct {
 	// Columns chooses the numeric columns; the zero value chooses all.
 	Columns tabprep.Selection `json:"columns"`
-	// Rounds is the largest number of rounds; 0 means 10.
+	// Rounds is the largest number of rounds, at most MaxRounds; 0 means 10.
 	Rounds int `json:"rounds,omitempty"`
 	// Tolerance, if positive, stops the rounds early (in standard
 	// deviations of the column).
@@ -50,6 +50,10 @@ type Chained struct {
 	// Seed draws the order in which the columns are visited.
 	Seed uint64 `json:"seed"`
 }
+
+// MaxRounds bounds the rounds of [Chained], so that params from an
+// untrusted document cannot make a transform run without end.
+const MaxRounds = 1000
 
 // ChainedParams holds the frozen equations.
 type ChainedParams struct {
@@ -90,8 +94,8 @@ func (s Chained) Fit(train *tabprep.Frame) (ChainedParams, error) {
 	if ridge == 0 {
 		ridge = 1e-6
 	}
-	if rounds < 0 || !(ridge > 0) || math.IsInf(ridge, 0) || !(s.Tolerance >= 0) {
-		return ChainedParams{}, tabprep.Errorf(op, tabprep.ErrOption, "", "Rounds %d, Ridge %v, Tolerance %v: want Rounds ≥ 0, Ridge > 0 finite, Tolerance ≥ 0", s.Rounds, s.Ridge, s.Tolerance)
+	if rounds < 0 || rounds > MaxRounds || !(ridge > 0) || math.IsInf(ridge, 0) || !(s.Tolerance >= 0) {
+		return ChainedParams{}, tabprep.Errorf(op, tabprep.ErrOption, "", "Rounds %d, Ridge %v, Tolerance %v: want Rounds in [0, %d], Ridge > 0 finite, Tolerance ≥ 0", s.Rounds, s.Ridge, s.Tolerance, MaxRounds)
 	}
 	cols, err := numericColumns(op, train, s.Columns)
 	if err != nil {
@@ -233,6 +237,9 @@ func fitEquation(op, name string, x [][]float64, miss []bool, t int, scale []flo
 // equations.
 func (s Chained) Transform(p ChainedParams, data *tabprep.Frame) (*tabprep.Frame, error) {
 	const op = "impute.chained transform"
+	if err := p.check(op); err != nil {
+		return nil, err
+	}
 	d := len(p.Columns)
 	in := make([][]float64, d)
 	gaps := false

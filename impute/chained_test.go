@@ -127,5 +127,5 @@ func TestChainedErrors(t *testing.T) {
 	require.ErrorIs(t, err, tabprep.ErrAllMissing)
 	require.EqualError(t, err, `impute.chained fit: column "distance_km": no value in the 3 train rows to model; drop the column (impute.DropSparse) or leave it out of Columns`)
 	_, err = impute.Chained{Ridge: -1}.Fit(train)
-	require.EqualError(t, err, `impute.chained fit: Rounds 0, Ridge -1, Tolerance 0: want Rounds ≥ 0, Ridge > 0 finite, Tolerance ≥ 0`)
+	require.EqualError(t, err, `impute.chained fit: Rounds 0, Ridge -1, Tolerance 0: want Rounds in [0, 1000], Ridge > 0 finite, Tolerance ≥ 0`)
 }

@@ -41,11 +41,14 @@ type KNearest struct {
 	// Columns chooses the numeric columns to fill and to measure distance
 	// by; the zero value chooses all.
 	Columns tabprep.Selection `json:"columns"`
-	// K is the number of donors, at least 1; 0 means 5.
+	// K is the number of donors, in [1, MaxK]; 0 means 5.
 	K int `json:"k,omitempty"`
 	// Weights is WeightUniform (the default when empty) or WeightDistance.
 	Weights string `json:"weights,omitempty"`
 }
+
+// MaxK bounds the K of [KNearest].
+const MaxK = 10_000
 
 // KNearestParams holds the scaling and the train reference rows.
 type KNearestParams struct {
@@ -76,8 +79,8 @@ func (s KNearest) Fit(train *tabprep.Frame) (KNearestParams, error) {
 	if k == 0 {
 		k = 5
 	}
-	if k < 0 {
-		return KNearestParams{}, tabprep.Errorf(op, tabprep.ErrOption, "", "K = %d; give K ≥ 1", s.K)
+	if k < 0 || k > MaxK {
+		return KNearestParams{}, tabprep.Errorf(op, tabprep.ErrOption, "", "K = %d; give K in [1, %d]", s.K, MaxK)
 	}
 	w := s.Weights
 	if w == "" {
@@ -117,6 +120,9 @@ func (s KNearest) Fit(train *tabprep.Frame) (KNearestParams, error) {
 // train rows.
 func (s KNearest) Transform(p KNearestParams, data *tabprep.Frame) (*tabprep.Frame, error) {
 	const op = "impute.knearest transform"
+	if err := p.check(op); err != nil {
+		return nil, err
+	}
 	d := len(p.Columns)
 	in := make([][]float64, d)
 	out := make([][]float64, d)
@@ -175,7 +181,7 @@ func (a neighbour) farther(b neighbour) bool {
 }
 
 func newNeighbourScratch(p KNearestParams) *neighbourScratch {
-	sc := &neighbourScratch{inv: make([]float64, len(p.Columns)), dist: make([]float64, p.Rows), heap: make([]neighbour, 0, p.K)}
+	sc := &neighbourScratch{inv: make([]float64, len(p.Columns)), dist: make([]float64, p.Rows), heap: make([]neighbour, 0, min(p.K, p.Rows))}
 	for j, s := range p.Scale {
 		sc.inv[j] = 1 / s
 	}

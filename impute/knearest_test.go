@@ -141,7 +141,7 @@ func TestKNearestErrors(t *testing.T) {
 		{"bad weights", impute.KNearest{Weights: "inverse"},
 			`impute.knearest fit: Weights "inverse"; use "uniform" or "distance"`},
 		{"negative k", impute.KNearest{K: -1},
-			`impute.knearest fit: K = -1; give K ≥ 1`},
+			`impute.knearest fit: K = -1; give K in [1, 10000]`},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
