@@ -45,7 +45,10 @@ type Chained struct {
 	// deviations of the column).
 	Tolerance float64 `json:"tolerance,omitempty"`
 	// Ridge is λ, the penalty on the scaled coefficients relative to the
-	// row count; 0 means 1e-6. It keeps collinear columns solvable.
+	// row count; 0 means 1e-6. It keeps collinear columns solvable, and
+	// shrinks each scaled coefficient by a relative amount of about λ (so
+	// an exact linear relation comes back to about six digits at the
+	// default; lower it where that matters).
 	Ridge float64 `json:"ridge,omitempty"`
 	// Seed draws the order in which the columns are visited.
 	Seed uint64 `json:"seed"`
@@ -280,4 +283,52 @@ func (s Chained) Transform(p ChainedParams, data *tabprep.Frame) (*tabprep.Frame
 		}
 	}
 	return data.With(changed...)
+}
+
+// RowKernel returns the fill of p for single rows laid out by in; the
+// output layout is in. It gives the same cells as Transform, since
+// Transform fills each row on its own.
+func (s Chained) RowKernel(p ChainedParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	const op = "impute.chained row"
+	if err := p.check(op); err != nil {
+		return nil, tabprep.Schema{}, err
+	}
+	pos, err := numericPositions(op, in, p.Columns)
+	if err != nil {
+		return nil, tabprep.Schema{}, err
+	}
+	width := len(in.Columns)
+	fn := func(dst, src []tabprep.Cell) error {
+		if len(src) != width || len(dst) != width {
+			return rowWidthError(op, width, len(src), len(dst))
+		}
+		copy(dst, src)
+		gaps := false
+		for j, k := range pos {
+			if math.IsNaN(src[k].Num) {
+				dst[k].Num = p.Center[j]
+				gaps = true
+			}
+		}
+		if !gaps {
+			return nil
+		}
+		for range p.Rounds {
+			for _, t := range p.Order {
+				if !math.IsNaN(src[pos[t]].Num) {
+					continue
+				}
+				e := &p.Equations[t]
+				v := float64(e.Intercept)
+				for j, c := range e.Coef {
+					if c != 0 {
+						v += c * dst[pos[j]].Num
+					}
+				}
+				dst[pos[t]].Num = v
+			}
+		}
+		return nil
+	}
+	return fn, tabprep.Schema{Columns: slices.Clone(in.Columns)}, nil
 }

@@ -129,3 +129,14 @@ func TestChainedErrors(t *testing.T) {
 	_, err = impute.Chained{Ridge: -1}.Fit(train)
 	require.EqualError(t, err, `impute.chained fit: Rounds 0, Ridge -1, Tolerance 0: want Rounds in [0, 1000], Ridge > 0 finite, Tolerance ≥ 0`)
 }
+
+func TestChainedRowKernel(t *testing.T) {
+	rng := rand.New(rand.NewPCG(77, 78))
+	s := impute.Chained{Rounds: 4, Seed: 5}
+	p, err := s.Fit(unitFrame(rng, 200, 0.3))
+	require.NoError(t, err)
+	checkRowKernel(t, s.RowKernel, p, unitFrame(rng, 60, 0.5), s.Transform)
+	vp, err := s.Fit(vetFrame(rng, 100, 0.3))
+	require.NoError(t, err)
+	checkRowKernel(t, s.RowKernel, vp, vetFrame(rng, 40, 0.4), s.Transform)
+}
