@@ -47,14 +47,26 @@
 //
 // # Model-based fills
 //
-// [KNearest] fills a gap with the mean of the k nearest train rows over the
-// other numeric columns; [Chained] fits one ridge regression per column with
-// gaps, round after round (chained equations), and freezes the coefficients.
+// [KNearest] fills a gap with the mean, plain or distance-weighted, of the k
+// nearest train rows over the other numeric columns; [Chained] fits one ridge
+// regression per chosen column from the others, round after round (chained
+// equations), and freezes the coefficients.
+//
+// [Chained] fills each row on its own and can act on one row; [KNearest]
+// scans every train row for each query row and has no row kernel.
 //
 // # Structure
 //
 // [Indicators] adds a 0/1 column per chosen column with train gaps, named by
 // [IndicatorName]; [DropSparse] drops the columns whose train missing share
 // exceeds a threshold; [DropRows] drops the rows that miss a value in chosen
-// columns and reports how many went.
+// columns and reports how many went. Indicators and DropSparse can act on
+// one row; DropRows cannot, since it may return no row.
+//
+// # Bounds
+//
+// Params may come from a document the caller did not write, so the
+// transforms check their shape and return an error wrapping
+// [tabprep.ErrValue] rather than panic, and K and the rounds of the
+// model-based fills are bounded ([MaxK], [MaxRounds]).
 package impute

@@ -196,3 +196,44 @@ func ExampleDropSparse() {
 	// Output:
 	// [reminder] [distance_km]
 }
+
+func ExampleKNearest() {
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("pet_age", []float64{1, 2, 8, 9}),
+		tabprep.NewNumeric("prior_no_shows", []float64{0, 0, 3, 5}),
+	)
+	step := impute.KNearest{K: 2}
+	p, _ := step.Fit(train)
+	batch := tabprep.MustFrame(
+		tabprep.NewNumeric("pet_age", []float64{8.5, 1.5}),
+		tabprep.NewNumeric("prior_no_shows", []float64{nan, nan}),
+	)
+	out, _ := step.Transform(p, batch)
+	fmt.Println(out.Col(1).Float64s(), "from", p.Rows, "reference rows")
+	// Output:
+	// [4 0] from 4 reference rows
+}
+
+func ExampleChained() {
+	// Body temperature in both scales: t/°F = 1.8·t/°C + 32 exactly.
+	train := tabprep.MustFrame(
+		tabprep.NewNumeric("temp_c", []float64{38, 38.5, nan, 39, 37.5, 38.2}),
+		tabprep.NewNumeric("temp_f", []float64{100.4, nan, 102.2, 102.2, 99.5, 100.76}),
+	)
+	step := impute.Chained{Rounds: 30, Ridge: 1e-12, Seed: 1}
+	p, err := step.Fit(train)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	eq := p.Equations[1]
+	fmt.Printf("%s = %.4f + %.4f·temp_c\n", eq.Target, float64(eq.Intercept), eq.Coef[0])
+	out, _ := step.Transform(p, tabprep.MustFrame(
+		tabprep.NewNumeric("temp_c", []float64{40, nan}),
+		tabprep.NewNumeric("temp_f", []float64{nan, 98.6}),
+	))
+	fmt.Printf("%.4f %.4f\n", out.Col(1).Value(0), out.Col(0).Value(1))
+	// Output:
+	// temp_f = 32.0000 + 1.8000·temp_c
+	// 104.0000 37.0000
+}

@@ -162,6 +162,9 @@ func applyOrder(op string, p OrderParams, data *tabprep.Frame, mode orderMode) (
 	}
 	var changed []*tabprep.Column
 	for _, f := range p.Edges {
+		if f.Kind != tabprep.Numeric {
+			return nil, badParams(op, "edge fill of %q is for a %v column", f.Name, f.Kind)
+		}
 		c, err := inputColumn(op, data, f.Name, tabprep.Numeric)
 		if err != nil {
 			return nil, err

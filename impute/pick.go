@@ -75,3 +75,19 @@ func inputColumn(op string, data *tabprep.Frame, name string, kind tabprep.Kind)
 func lacksColumn(op, name string) error {
 	return tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the data lacks it; pass data with the train columns")
 }
+
+// numericPositions returns the position in the row layout in of each named
+// column, which must be numeric.
+func numericPositions(op string, in tabprep.Schema, names []string) ([]int, error) {
+	pos := make([]int, len(names))
+	for j, name := range names {
+		pos[j] = in.Index(name)
+		if pos[j] < 0 {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the row layout lacks it")
+		}
+		if in.Columns[pos[j]].Kind != tabprep.Numeric {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "is %v in the row layout, but was numeric at fit time", in.Columns[pos[j]].Kind)
+		}
+	}
+	return pos, nil
+}

@@ -1,6 +1,8 @@
 package impute
 
 import (
+	"slices"
+
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/state"
 )
@@ -69,4 +71,34 @@ func (s DropSparse) Transform(p SparseParams, data *tabprep.Frame) (*tabprep.Fra
 		}
 	}
 	return data.Without(p.Dropped...)
+}
+
+// RowKernel returns the column filter of p for single rows laid out by in;
+// the output layout is in without the dropped columns.
+func (s DropSparse) RowKernel(p SparseParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+	const op = "impute.dropsparse row"
+	var out tabprep.Schema
+	var keep []int
+	for i, f := range in.Columns {
+		if !slices.Contains(p.Dropped, f.Name) {
+			keep = append(keep, i)
+			out.Columns = append(out.Columns, f)
+		}
+	}
+	for _, name := range p.Dropped {
+		if in.Index(name) < 0 {
+			return nil, tabprep.Schema{}, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted to drop this column but the row layout lacks it")
+		}
+	}
+	width := len(in.Columns)
+	fn := func(dst, src []tabprep.Cell) error {
+		if len(src) != width || len(dst) != len(keep) {
+			return rowWidthError(op, width, len(src), len(dst))
+		}
+		for i, k := range keep {
+			dst[i] = src[k]
+		}
+		return nil
+	}
+	return fn, out, nil
 }

@@ -112,6 +112,8 @@ func TestDropSparse(t *testing.T) {
 	_, err = s.Transform(p, tabprep.MustFrame(tabprep.NewNumeric("pet_age", []float64{1})))
 	require.EqualError(t, err, `impute.dropsparse transform: column "reminder": fitted on this column but the data lacks it; pass data with the train columns`)
 
+	checkRowKernel(t, s.RowKernel, p, data, s.Transform)
+
 	rng := rand.New(rand.NewPCG(55, 56))
 	for range 5 {
 		checkContract(t, impute.DropSparse{MaxShare: 0.2}, vetFrame(rng, 40, 0.2), withHoldout(t, vetFrame(rng, 30, 0.3)), false)
