@@ -47,7 +47,9 @@ const UnseenCode int32 = -2
 // cells: the slots it reads and writes were fixed when it was made, from a
 // [RowLayout]. A RowFunc writes every slot it adds, on every row, must not
 // allocate on the common path, and must be safe for concurrent use (each
-// caller has its own register file).
+// caller has its own register file). In a register, a numeric cell's Str
+// and Code mean nothing, so a kernel that makes a numeric value writes Num
+// alone; a plan hands out numeric cells with Str and Code cleared.
 type RowFunc func(regs []Cell) error
 
 // RowKernel is implemented by steps that can act on a single row, for

@@ -235,10 +235,6 @@ func byCode(levels []string, index map[string]int32, unseen int32) []int32 {
 	return t
 }
 
-func errRowShape(op string, src, wantSrc, dst, wantDst int) error {
-	return tabprep.Errorf(op, tabprep.ErrLength, "", "row of %d cells into %d: the kernel reads %d and writes %d; size the buffers by the schemas", src, dst, wantSrc, wantDst)
-}
-
 // checkOption returns an option error unless v is one of allowed.
 func checkOption[T ~string](op, field string, v T, allowed ...T) error {
 	if slices.Contains(allowed, v) {

@@ -8,6 +8,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
 
@@ -69,24 +70,6 @@ func rowCells(f *tabprep.Frame, i int, dst []tabprep.Cell) []tabprep.Cell {
 	return dst
 }
 
-// requireKernelMatches checks that the row function writes, row by row, the
-// cells of the batch transform, bit for bit, under the same schema names.
-func requireKernelMatches(t *testing.T, fn tabprep.RowFunc, out tabprep.Schema, data, batch *tabprep.Frame) {
-	t.Helper()
-	require.Equal(t, batch.Names(), out.Names())
-	dst := make([]tabprep.Cell, len(out.Columns))
-	var src []tabprep.Cell
-	for i := 0; i < data.NumRows(); i++ {
-		src = rowCells(data, i, src)
-		require.NoError(t, fn(dst, src))
-		want := rowCells(batch, i, nil)
-		for j := range want {
-			require.Equal(t, math.Float64bits(want[j].Num), math.Float64bits(dst[j].Num), "row %d col %s", i, out.Columns[j].Name)
-			require.Equal(t, want[j].Str, dst[j].Str, "row %d col %s", i, out.Columns[j].Name)
-		}
-	}
-}
-
 // requireKernel fits s on the demo train rows, checks its compiled row
 // kernel against its batch transform on the new rows, bit for bit and with
 // no allocation per row, and returns the parameters.
@@ -99,33 +82,12 @@ func requireKernel[S tabprep.Step[P], P any](t *testing.T, s S) P {
 // kernelOf compiles the row kernel of s with p for rows of schema in, and
 // returns a function that runs one row through it as a plan would.
 func kernelOf[P any](s tabprep.RowKernel[P], p P, in tabprep.Schema) (func(row []tabprep.Cell) error, error) {
-	l := tabprep.NewRowLayout(in)
-	fn, err := s.RowKernel(p, l)
+	run, out, err := steptest.Compile(s.RowKernel, p, in)
 	if err != nil {
 		return nil, err
 	}
-	regs := make([]tabprep.Cell, l.Slots())
-	return func(row []tabprep.Cell) error {
-		copy(regs, row)
-		for i, f := range in.Columns {
-			if f.Kind == tabprep.Categorical {
-				regs[i].Code = codeOf(f.Levels, row[i].Str)
-			}
-		}
-		return fn(regs)
-	}, nil
-}
-
-func codeOf(levels []string, s string) int32 {
-	if s == "" {
-		return tabprep.MissingCode
-	}
-	for i, l := range levels {
-		if l == s {
-			return int32(i)
-		}
-	}
-	return tabprep.UnseenCode
+	dst := make([]tabprep.Cell, len(out.Columns))
+	return func(row []tabprep.Cell) error { return run(dst, row) }, nil
 }
 
 func column(t *testing.T, f *tabprep.Frame, name string) []float64 {

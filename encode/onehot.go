@@ -295,9 +295,11 @@ func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc
 			if j == -2 {
 				return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training; the step's Unseen policy is %q", c.Str, UnseenError)
 			}
+			// The output slots are this kernel's own and numeric, so only
+			// their numbers need writing.
 			out := regs[pl.to : pl.to+pl.width]
 			for k := range out {
-				out[k] = tabprep.Cell{}
+				out[k].Num = 0
 			}
 			if j >= 0 {
 				out[j].Num = 1

@@ -156,6 +156,8 @@ func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFu
 	for i, oc := range p.Columns {
 		tables[i] = byCode(levels[i], indexOf(oc.Levels), none)
 	}
+	// The column turns numeric: only Num is written, since a numeric
+	// cell's Str and Code mean nothing (see tabprep.RowFunc).
 	fn := func(regs []tabprep.Cell) error {
 		for i, table := range tables {
 			c := &regs[at[i]]
@@ -167,17 +169,17 @@ func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFu
 				if !missingOK {
 					return tabprep.Errorf(op, tabprep.ErrValue, sources[i], "missing cell and no MissingCode; set MissingCode or fill the column first")
 				}
-				*c = tabprep.Cell{Num: missing}
+				c.Num = missing
 				continue
 			}
 			if k == none {
 				if !unseenOK {
 					return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training and no UnseenCode is set", c.Str)
 				}
-				*c = tabprep.Cell{Num: unseen}
+				c.Num = unseen
 				continue
 			}
-			*c = tabprep.Cell{Num: float64(k)}
+			c.Num = float64(k)
 		}
 		return nil
 	}

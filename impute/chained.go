@@ -285,50 +285,53 @@ func (s Chained) Transform(p ChainedParams, data *tabprep.Frame) (*tabprep.Frame
 	return data.With(changed...)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in; the
-// output layout is in. It gives the same cells as Transform, since
-// Transform fills each row on its own.
-func (s Chained) RowKernel(p ChainedParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+// RowKernel returns the fill of p for single rows laid out by l. It gives
+// the same cells as Transform, since Transform fills each row on its own.
+func (s Chained) RowKernel(p ChainedParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "impute.chained row"
 	if err := p.check(op); err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	pos, err := numericPositions(op, in, p.Columns)
+	slots, err := numericPositions(op, l, p.Columns)
 	if err != nil {
-		return nil, tabprep.Schema{}, err
+		return nil, err
 	}
-	width := len(in.Columns)
-	fn := func(dst, src []tabprep.Cell) error {
-		if len(src) != width || len(dst) != width {
-			return rowWidthError(op, width, len(src), len(dst))
+	fn := func(regs []tabprep.Cell) error {
+		// gap[j] says whether column j was missing on entry; a fixed array
+		// keeps the common case free of allocation.
+		var buf [64]bool
+		gap := buf[:0]
+		if len(slots) > len(buf) {
+			gap = make([]bool, 0, len(slots))
 		}
-		copy(dst, src)
-		gaps := false
-		for j, k := range pos {
-			if math.IsNaN(src[k].Num) {
-				dst[k].Num = p.Center[j]
-				gaps = true
+		any := false
+		for j, k := range slots {
+			g := math.IsNaN(regs[k].Num)
+			gap = append(gap, g)
+			if g {
+				regs[k].Num = p.Center[j]
+				any = true
 			}
 		}
-		if !gaps {
+		if !any {
 			return nil
 		}
 		for range p.Rounds {
 			for _, t := range p.Order {
-				if !math.IsNaN(src[pos[t]].Num) {
+				if !gap[t] {
 					continue
 				}
 				e := &p.Equations[t]
 				v := float64(e.Intercept)
 				for j, c := range e.Coef {
 					if c != 0 {
-						v += c * dst[pos[j]].Num
+						v += c * regs[slots[j]].Num
 					}
 				}
-				dst[pos[t]].Num = v
+				regs[slots[t]].Num = v
 			}
 		}
 		return nil
 	}
-	return fn, tabprep.Schema{Columns: slices.Clone(in.Columns)}, nil
+	return fn, nil
 }

@@ -62,61 +62,54 @@ func fillLevel(c *tabprep.Column, level string) (*tabprep.Column, error) {
 	return tabprep.AdoptCategorical(c.Name(), levels, codes)
 }
 
-// cellFill is one column fill of a row kernel, by position.
+// cellFill is one column fill of a row kernel, by register slot.
 type cellFill struct {
-	pos     int
+	slot    int
 	numeric bool
 	num     float64
 	level   string
+	code    int32 // the level's code in the output layout
 }
 
-// fillKernel is the row kernel of p: src is copied to dst by position and
-// the gaps of the fitted columns are filled. The output layout is in, with
-// a constant level added to a categorical column's levels if needed.
-func fillKernel(op string, p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	out := tabprep.Schema{Columns: slices.Clone(in.Columns)}
+// fillKernel is the row kernel of p: the gaps of the fitted columns are
+// filled in their slots. A constant level is added to a categorical
+// column's levels in the layout if it lacks it, as Transform does.
+func fillKernel(op string, p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	var fills []cellFill
 	for _, f := range p.Columns {
-		pos := in.Index(f.Name)
-		if pos < 0 {
-			return nil, tabprep.Schema{}, tabprep.Errorf(op, tabprep.ErrSchema, f.Name, "fitted on this column but the row layout lacks it")
+		slot, field, ok := l.Slot(f.Name)
+		if !ok {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, f.Name, "fitted on this column but the row layout lacks it")
 		}
-		if in.Columns[pos].Kind != f.Kind {
-			return nil, tabprep.Schema{}, tabprep.Errorf(op, tabprep.ErrSchema, f.Name, "is %v in the row layout, but was %v at fit time", in.Columns[pos].Kind, f.Kind)
+		if field.Kind != f.Kind {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, f.Name, "is %v in the row layout, but was %v at fit time", field.Kind, f.Kind)
 		}
 		if f.Stat == StatKeep {
 			continue
 		}
+		cf := cellFill{slot: slot, numeric: f.Kind == tabprep.Numeric, num: float64(f.Number), level: f.Level}
 		if f.Kind == tabprep.Categorical {
-			levels, _ := withLevel(in.Columns[pos].Levels, f.Level)
-			out.Columns[pos].Levels = slices.Clone(levels)
+			field.Levels, cf.code = withLevel(field.Levels, f.Level)
+			field.Levels = slices.Clone(field.Levels)
+			l.Set(f.Name, field)
 		}
-		fills = append(fills, cellFill{pos: pos, numeric: f.Kind == tabprep.Numeric, num: float64(f.Number), level: f.Level})
+		fills = append(fills, cf)
 	}
-	width := len(in.Columns)
-	fn := func(dst, src []tabprep.Cell) error {
-		if len(src) != width || len(dst) != width {
-			return rowWidthError(op, width, len(src), len(dst))
-		}
-		copy(dst, src)
+	fn := func(regs []tabprep.Cell) error {
 		for i := range fills {
 			f := &fills[i]
-			c := &dst[f.pos]
+			c := &regs[f.slot]
 			if f.numeric {
 				if math.IsNaN(c.Num) {
 					c.Num = f.num
 				}
-			} else if c.Str == "" {
-				c.Str = f.level
+			} else if c.Code == tabprep.MissingCode {
+				c.Str, c.Code = f.level, f.code
 			}
 		}
 		return nil
 	}
-	return fn, out, nil
-}
-
-func rowWidthError(op string, want, src, dst int) error {
-	return tabprep.Errorf(op, tabprep.ErrLength, "", "row of %d cells into %d, the layout has %d; size src and dst by the schemas", src, dst, want)
+	return fn, nil
 }
 
 // fitSelected fits rule r on each of cols, decided by the step itself.

@@ -2,7 +2,6 @@ package impute
 
 import (
 	"math"
-	"slices"
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/state"
@@ -92,38 +91,36 @@ func (s Indicators) Transform(p IndicatorParams, data *tabprep.Frame) (*tabprep.
 	return data.With(add...)
 }
 
-// RowKernel returns the indicators of p for single rows laid out by in;
-// the output layout is in followed by the indicator columns.
-func (s Indicators) RowKernel(p IndicatorParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+// RowKernel returns the indicators of p for single rows laid out by l;
+// the indicator columns are appended.
+func (s Indicators) RowKernel(p IndicatorParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "impute.indicators row"
-	out := tabprep.Schema{Columns: slices.Clone(in.Columns)}
-	src := make([]int, len(p.Columns))
+	from := make([]int, len(p.Columns))
 	numeric := make([]bool, len(p.Columns))
 	for j, ind := range p.Columns {
-		if src[j] = in.Index(ind.Source); src[j] < 0 {
-			return nil, tabprep.Schema{}, tabprep.Errorf(op, tabprep.ErrSchema, ind.Source, "fitted on this column but the row layout lacks it")
+		k, f, ok := l.Slot(ind.Source)
+		if !ok {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, ind.Source, "fitted on this column but the row layout lacks it")
 		}
-		numeric[j] = in.Columns[src[j]].Kind == tabprep.Numeric
-		out.Columns = append(out.Columns, tabprep.Field{Name: ind.Name, Kind: tabprep.Numeric})
+		from[j], numeric[j] = k, f.Kind == tabprep.Numeric
 	}
-	if err := out.Validate(); err != nil {
-		return nil, tabprep.Schema{}, err
+	to := make([]int, len(p.Columns))
+	for j, ind := range p.Columns {
+		to[j] = l.Add(tabprep.Field{Name: ind.Name, Kind: tabprep.Numeric})
 	}
-	width := len(in.Columns)
-	fn := func(dst, row []tabprep.Cell) error {
-		if len(row) != width || len(dst) != len(out.Columns) {
-			return rowWidthError(op, width, len(row), len(dst))
-		}
-		copy(dst, row)
-		for j, k := range src {
-			c := row[k]
-			miss := (numeric[j] && math.IsNaN(c.Num)) || (!numeric[j] && c.Str == "")
-			dst[width+j] = tabprep.Cell{}
+	if err := l.Schema().Validate(); err != nil {
+		return nil, err
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for j, k := range from {
+			c := &regs[k]
+			miss := (numeric[j] && math.IsNaN(c.Num)) || (!numeric[j] && c.Code == tabprep.MissingCode)
+			regs[to[j]] = tabprep.Cell{}
 			if miss {
-				dst[width+j].Num = 1
+				regs[to[j]].Num = 1
 			}
 		}
 		return nil
 	}
-	return fn, out, nil
+	return fn, nil
 }

@@ -29,7 +29,7 @@ func (s Mean) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, erro
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Mean) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Mean) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }

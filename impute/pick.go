@@ -78,16 +78,17 @@ func lacksColumn(op, name string) error {
 
 // numericPositions returns the position in the row layout in of each named
 // column, which must be numeric.
-func numericPositions(op string, in tabprep.Schema, names []string) ([]int, error) {
-	pos := make([]int, len(names))
+func numericPositions(op string, l *tabprep.RowLayout, names []string) ([]int, error) {
+	slots := make([]int, len(names))
 	for j, name := range names {
-		pos[j] = in.Index(name)
-		if pos[j] < 0 {
+		k, f, ok := l.Slot(name)
+		if !ok {
 			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted on this column but the row layout lacks it")
 		}
-		if in.Columns[pos[j]].Kind != tabprep.Numeric {
-			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "is %v in the row layout, but was numeric at fit time", in.Columns[pos[j]].Kind)
+		if f.Kind != tabprep.Numeric {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "is %v in the row layout, but was numeric at fit time", f.Kind)
 		}
+		slots[j] = k
 	}
-	return pos, nil
+	return slots, nil
 }

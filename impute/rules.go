@@ -101,7 +101,7 @@ func (s Fill) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, erro
 	return applyFill("impute.fill transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Fill) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel("impute.fill row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Fill) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel("impute.fill row", p, l)
 }

@@ -1,8 +1,6 @@
 package impute
 
 import (
-	"slices"
-
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/state"
 )
@@ -73,32 +71,15 @@ func (s DropSparse) Transform(p SparseParams, data *tabprep.Frame) (*tabprep.Fra
 	return data.Without(p.Dropped...)
 }
 
-// RowKernel returns the column filter of p for single rows laid out by in;
-// the output layout is in without the dropped columns.
-func (s DropSparse) RowKernel(p SparseParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
+// RowKernel returns the column filter of p for single rows laid out by l:
+// the dropped columns leave the layout, and no cell moves.
+func (s DropSparse) RowKernel(p SparseParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "impute.dropsparse row"
-	var out tabprep.Schema
-	var keep []int
-	for i, f := range in.Columns {
-		if !slices.Contains(p.Dropped, f.Name) {
-			keep = append(keep, i)
-			out.Columns = append(out.Columns, f)
-		}
-	}
 	for _, name := range p.Dropped {
-		if in.Index(name) < 0 {
-			return nil, tabprep.Schema{}, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted to drop this column but the row layout lacks it")
+		if _, _, ok := l.Slot(name); !ok {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted to drop this column but the row layout lacks it")
 		}
+		l.Remove(name)
 	}
-	width := len(in.Columns)
-	fn := func(dst, src []tabprep.Cell) error {
-		if len(src) != width || len(dst) != len(keep) {
-			return rowWidthError(op, width, len(src), len(dst))
-		}
-		for i, k := range keep {
-			dst[i] = src[k]
-		}
-		return nil
-	}
-	return fn, out, nil
+	return func([]tabprep.Cell) error { return nil }, nil
 }

@@ -65,9 +65,9 @@ func (s Median) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, er
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Median) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Median) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }
 
 // Kind returns "impute.min".
@@ -83,9 +83,9 @@ func (s Min) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, error
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Min) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Min) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }
 
 // Kind returns "impute.max".
@@ -101,9 +101,9 @@ func (s Max) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, error
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Max) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Max) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }
 
 // Kind returns "impute.mostfrequent".
@@ -119,9 +119,9 @@ func (s MostFrequent) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Fra
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s MostFrequent) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s MostFrequent) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }
 
 // Kind returns "impute.constant".
@@ -138,7 +138,7 @@ func (s Constant) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, 
 	return applyFill(s.Kind()+" transform", p, data)
 }
 
-// RowKernel returns the fill of p for single rows laid out by in.
-func (s Constant) RowKernel(p FillParams, in tabprep.Schema) (tabprep.RowFunc, tabprep.Schema, error) {
-	return fillKernel(s.Kind()+" row", p, in)
+// RowKernel returns the fill of p for single rows laid out by l.
+func (s Constant) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	return fillKernel(s.Kind()+" row", p, l)
 }

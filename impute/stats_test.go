@@ -44,8 +44,10 @@ func TestStatisticRowKernels(t *testing.T) {
 	p, err := rules.Fit(train)
 	require.NoError(t, err)
 	checkRowKernel(t, rules.RowKernel, p, fresh, rules.Transform)
-	_, out, err := rules.RowKernel(p, fresh.Schema())
+	l := tabprep.NewRowLayout(fresh.Schema())
+	_, err = rules.RowKernel(p, l)
 	require.NoError(t, err)
+	out := l.Schema()
 	require.Contains(t, out.Columns[out.Index("species")].Levels, "unknown")
 	mf := impute.MostFrequent{}
 	p, err = mf.Fit(train)

@@ -1,7 +1,6 @@
 package pipeline
 
 import (
-	"cmp"
 	"fmt"
 	"slices"
 	"sync"
@@ -33,22 +32,37 @@ type Plan struct {
 	structs    sync.Map  // reflect.Type → []int, for FromStruct
 }
 
-// levelTable maps a level string to its code by binary search over the
-// sorted levels, which costs about what a hand-written switch does.
+// levelTable maps a level string to its code with a small open-addressing
+// hash table over a cheap hash of the string's length and its first, middle
+// and last bytes, so that a lookup costs about what a hand-written switch does.
 type levelTable struct {
-	sorted []string
-	codes  []int32
+	keys  []string
+	codes []int32 // MissingCode marks an empty bucket
+	mask  uint64
+	shift uint // 64 − log2(len(codes)): the hash's top bits pick the bucket
+}
+
+func levelHash(s string) uint64 {
+	n := len(s)
+	h := uint64(n)<<24 | uint64(s[0])<<16 | uint64(s[n/2])<<8 | uint64(s[n-1])
+	return h * 0x9E3779B97F4A7C15
 }
 
 func newLevelTable(levels []string) levelTable {
-	idx := make([]int, len(levels))
-	for i := range idx {
-		idx[i] = i
+	size, bits := 8, uint(3)
+	for size < 4*len(levels) {
+		size, bits = size*2, bits+1
 	}
-	slices.SortFunc(idx, func(a, b int) int { return cmp.Compare(levels[a], levels[b]) })
-	t := levelTable{sorted: make([]string, len(levels)), codes: make([]int32, len(levels))}
-	for i, j := range idx {
-		t.sorted[i], t.codes[i] = levels[j], int32(j)
+	t := levelTable{keys: make([]string, size), codes: make([]int32, size), mask: uint64(size - 1), shift: 64 - bits}
+	for i := range t.codes {
+		t.codes[i] = tabprep.MissingCode
+	}
+	for code, l := range levels {
+		i := levelHash(l) >> t.shift
+		for t.codes[i] != tabprep.MissingCode {
+			i = (i + 1) & t.mask
+		}
+		t.keys[i], t.codes[i] = l, int32(code)
 	}
 	return t
 }
@@ -57,10 +71,17 @@ func (t *levelTable) code(s string) int32 {
 	if s == "" {
 		return tabprep.MissingCode
 	}
-	if i, ok := slices.BinarySearch(t.sorted, s); ok {
-		return t.codes[i]
+	i := levelHash(s) >> t.shift
+	for {
+		c := t.codes[i]
+		if c == tabprep.MissingCode {
+			return tabprep.UnseenCode
+		}
+		if t.keys[i] == s {
+			return c
+		}
+		i = (i + 1) & t.mask
 	}
-	return tabprep.UnseenCode
 }
 
 type rowScratch struct {
@@ -130,10 +151,20 @@ func (p *Plan) Apply(dst, src []tabprep.Cell) error {
 	if err := p.run(s.regs, src); err != nil {
 		return err
 	}
-	for i, k := range p.outSlots {
-		dst[i] = s.regs[k]
-	}
+	p.gather(dst, s.regs)
 	return nil
+}
+
+// gather copies the output cells from regs to dst; numeric cells get Num
+// alone, since a register's Str and Code mean nothing for them.
+func (p *Plan) gather(dst, regs []tabprep.Cell) {
+	for i, k := range p.outSlots {
+		if p.out.Columns[i].Kind == tabprep.Numeric {
+			dst[i] = tabprep.Cell{Num: regs[k].Num}
+		} else {
+			dst[i] = regs[k]
+		}
+	}
 }
 
 // run loads src into regs and runs every step's row function.
@@ -153,6 +184,12 @@ func (p *Plan) run(regs, src []tabprep.Cell) error {
 // ApplyFloats is [Plan.Apply] for a pipeline whose output columns are all
 // numeric, as a model's input is: it writes the output values into dst.
 func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
+	s := p.scratch.Get().(*rowScratch)
+	defer p.scratch.Put(s)
+	return p.applyFloats(s.regs, dst, src)
+}
+
+func (p *Plan) applyFloats(regs []tabprep.Cell, dst []float64, src []tabprep.Cell) error {
 	if !p.numericOut {
 		return fmt.Errorf("pipeline: plan: the output has categorical columns; use Apply, or encode them in the pipeline")
 	}
@@ -160,15 +197,46 @@ func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
 		return fmt.Errorf("pipeline: plan: row of %d cells into %d values; the plan reads %d and writes %d",
 			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
 	}
-	s := p.scratch.Get().(*rowScratch)
-	defer p.scratch.Put(s)
-	if err := p.run(s.regs, src); err != nil {
+	if err := p.run(regs, src); err != nil {
 		return err
 	}
 	for i, k := range p.outSlots {
-		dst[i] = s.regs[k].Num
+		dst[i] = regs[k].Num
 	}
 	return nil
+}
+
+// Runner applies a plan with a register file of its own, saving the pool
+// round trip that [Plan.Apply] makes per row: for a loop that scores many
+// rows on one goroutine. A Runner is not safe for concurrent use; make one
+// per goroutine (they are cheap), or pool them.
+type Runner struct {
+	plan *Plan
+	regs []tabprep.Cell
+}
+
+// Runner returns a new runner of p.
+func (p *Plan) Runner() *Runner {
+	return &Runner{plan: p, regs: make([]tabprep.Cell, p.slots)}
+}
+
+// Apply is [Plan.Apply] on r's own registers.
+func (r *Runner) Apply(dst, src []tabprep.Cell) error {
+	p := r.plan
+	if len(src) != len(p.in.Columns) || len(dst) != len(p.out.Columns) {
+		return fmt.Errorf("pipeline: plan: row of %d cells into %d; the plan reads %d and writes %d",
+			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
+	}
+	if err := p.run(r.regs, src); err != nil {
+		return err
+	}
+	p.gather(dst, r.regs)
+	return nil
+}
+
+// ApplyFloats is [Plan.ApplyFloats] on r's own registers.
+func (r *Runner) ApplyFloats(dst []float64, src []tabprep.Cell) error {
+	return r.plan.applyFloats(r.regs, dst, src)
 }
 
 // TransformInto transforms every row of data into dst, row after row:

@@ -47,7 +47,7 @@ func servingPipeline(tb testing.TB) (*pipeline.Fitted, *tabprep.Frame) {
 type handConsts struct {
 	ageFill, distFill float64
 	reminderFill      string
-	mean, std         [4]float64 // days_ahead, pet_age, distance_km, prior_no_shows
+	mean, inv         [4]float64 // days_ahead, pet_age, distance_km, prior_no_shows; inv = 1/std
 }
 
 func handConstsOf(f *pipeline.Fitted) handConsts {
@@ -57,7 +57,9 @@ func handConstsOf(f *pipeline.Fitted) handConsts {
 	k.reminderFill = f.Step(1).Params().(impute.FillParams).Columns[0].Level
 	z := f.Step(4).Params().(scale.ZScoreParams)
 	copy(k.mean[:], z.Mean)
-	copy(k.std[:], z.Std)
+	for i, sd := range z.Std {
+		k.inv[i] = 1 / sd // scale.ZScore multiplies by the reciprocal
+	}
 	return k
 }
 
@@ -87,10 +89,10 @@ func handWritten(dst []float64, src []tabprep.Cell, k *handConsts) {
 	default:
 		dst[0] = math.NaN()
 	}
-	dst[1] = (src[3].Num - k.mean[0]) / k.std[0]
-	dst[2] = (age - k.mean[1]) / k.std[1]
-	dst[3] = (dist - k.mean[2]) / k.std[2]
-	dst[4] = (src[7].Num - k.mean[3]) / k.std[3]
+	dst[1] = (src[3].Num - k.mean[0]) * k.inv[0]
+	dst[2] = (age - k.mean[1]) * k.inv[1]
+	dst[3] = (dist - k.mean[2]) * k.inv[2]
+	dst[4] = (src[7].Num - k.mean[3]) * k.inv[3]
 	for i := 5; i < 19; i++ {
 		dst[i] = 0
 	}
@@ -163,7 +165,28 @@ func servingRows(b *testing.B) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
 	return plan, rows, k
 }
 
+// BenchmarkRowPlan runs the compiled plan one row per op, the way a
+// scoring loop does: with a Runner, its register file of its own.
 func BenchmarkRowPlan(b *testing.B) {
+	plan, rows, _ := servingRows(b)
+	run := plan.Runner()
+	dst := make([]float64, plan.OutputWidth())
+	b.ReportAllocs()
+	i := 0
+	for b.Loop() {
+		if err := run.ApplyFloats(dst, rows[i]); err != nil {
+			b.Fatal(err)
+		}
+		i++
+		if i == len(rows) {
+			i = 0
+		}
+	}
+}
+
+// BenchmarkRowPlanPooled is BenchmarkRowPlan through Plan.ApplyFloats,
+// which takes its registers from a pool on every row.
+func BenchmarkRowPlanPooled(b *testing.B) {
 	plan, rows, _ := servingRows(b)
 	dst := make([]float64, plan.OutputWidth())
 	b.ReportAllocs()

@@ -9,6 +9,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 	"github.com/tabprep/tabprep/scale"
 )
@@ -96,29 +97,9 @@ func requireRowKernelMatches[P any](t *testing.T, s any, p P, data, out *tabprep
 	if !ok {
 		return
 	}
-	fn, schema, err := rk.RowKernel(p, data.Schema())
+	run, schema, err := steptest.Compile(rk.RowKernel, p, data.Schema())
 	require.NoError(t, err)
-	require.Equal(t, out.Schema().Names(), schema.Names())
-	src := make([]tabprep.Cell, data.NumCols())
-	dst := make([]tabprep.Cell, data.NumCols())
-	for i := range data.NumRows() {
-		for k := range data.NumCols() {
-			if c := data.Col(k); c.Kind() == tabprep.Numeric {
-				src[k] = tabprep.Cell{Num: c.Value(i)}
-			} else {
-				src[k] = tabprep.Cell{Str: c.Level(i)}
-			}
-		}
-		require.NoError(t, fn(dst, src))
-		for k := range out.NumCols() {
-			if c := out.Col(k); c.Kind() == tabprep.Numeric {
-				require.Equal(t, math.Float64bits(c.Value(i)), math.Float64bits(dst[k].Num), "row %d column %s", i, c.Name())
-			} else {
-				require.Equal(t, c.Level(i), dst[k].Str)
-			}
-		}
-	}
-	require.Zero(t, testing.AllocsPerRun(20, func() { _ = fn(dst, src) }), "row kernel allocates")
+	steptest.MatchBatch(t, run, schema, data, out)
 }
 
 var positive = tabprep.Names("days_ahead", "distance_km", "pet_age")

@@ -62,3 +62,80 @@ func RowsMatch(t testing.TB, train, data *tabprep.Frame, stages ...pipeline.Stag
 	}
 	return fitted, plan
 }
+
+// Compile compiles the row kernel of a step with fitted parameters p for
+// rows of schema in, and returns a function that runs one input row through
+// it as a compiled plan does (level codes from in's levels), writing the
+// output row laid out by the returned schema. The function reuses one
+// register file, so it is for one goroutine.
+func Compile[P any](kernel func(P, *tabprep.RowLayout) (tabprep.RowFunc, error), p P, in tabprep.Schema) (func(dst, src []tabprep.Cell) error, tabprep.Schema, error) {
+	l := tabprep.NewRowLayout(in)
+	fn, err := kernel(p, l)
+	if err != nil {
+		return nil, tabprep.Schema{}, err
+	}
+	regs := make([]tabprep.Cell, l.Slots())
+	out := l.Schema()
+	slots := make([]int, l.Len())
+	for i := range slots {
+		slots[i] = l.SlotAt(i)
+	}
+	run := func(dst, src []tabprep.Cell) error {
+		if len(src) != len(in.Columns) || len(dst) != len(slots) {
+			return tabprep.Errorf("steptest", tabprep.ErrLength, "", "row of %d cells into %d; the kernel reads %d and writes %d", len(src), len(dst), len(in.Columns), len(slots))
+		}
+		copy(regs, src)
+		for i, f := range in.Columns {
+			if f.Kind == tabprep.Categorical {
+				regs[i].Code = codeOf(f.Levels, src[i].Str)
+			}
+		}
+		if err := fn(regs); err != nil {
+			return err
+		}
+		for i, k := range slots {
+			dst[i] = regs[k]
+		}
+		return nil
+	}
+	return run, out, nil
+}
+
+func codeOf(levels []string, s string) int32 {
+	if s == "" {
+		return tabprep.MissingCode
+	}
+	for i, l := range levels {
+		if l == s {
+			return int32(i)
+		}
+	}
+	return tabprep.UnseenCode
+}
+
+// MatchBatch requires that run, from [Compile], gives for every row of data
+// the cells of batch, the batch transform of data, bit for bit (NaN matching
+// NaN), under the same names, and that a row allocates nothing outside the
+// race detector.
+func MatchBatch(t testing.TB, run func(dst, src []tabprep.Cell) error, out tabprep.Schema, data, batch *tabprep.Frame) {
+	t.Helper()
+	require.Equal(t, batch.Names(), out.Names())
+	dst := make([]tabprep.Cell, len(out.Columns))
+	for i := 0; i < data.NumRows(); i++ {
+		src := Row(data, i)
+		require.NoError(t, run(dst, src), "row %d", i)
+		for j, cell := range dst {
+			c := batch.Col(j)
+			if c.Kind() == tabprep.Numeric {
+				want := c.Value(i)
+				same := math.Float64bits(want) == math.Float64bits(cell.Num) || (math.IsNaN(want) && math.IsNaN(cell.Num))
+				require.True(t, same, "row %d column %s: batch %v, kernel %v", i, c.Name(), want, cell.Num)
+			} else {
+				require.Equal(t, c.Level(i), cell.Str, "row %d column %s", i, c.Name())
+			}
+		}
+		if !raceEnabled {
+			require.Zero(t, testing.AllocsPerRun(20, func() { _ = run(dst, src) }), "row %d allocates", i)
+		}
+	}
+}
