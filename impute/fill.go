@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/par"
 )
 
 // FillParams is what every statistic fill learns: one decision per column,
@@ -15,36 +16,51 @@ type FillParams struct {
 
 // applyFill fills the gaps of data as p says. Columns without gaps are
 // shared, not copied.
+// Columns are filled on all cores; each writes only its own result.
 func applyFill(op string, p FillParams, data *tabprep.Frame) (*tabprep.Frame, error) {
-	var changed []*tabprep.Column
-	for _, f := range p.Columns {
+	out := make([]*tabprep.Column, len(p.Columns))
+	err := par.Each(len(p.Columns), data.NumRows(), func(j int) error {
+		f := p.Columns[j]
 		c, err := inputColumn(op, data, f.Name, f.Kind)
 		if err != nil {
-			return nil, err
+			return err
 		}
-		if f.Stat == StatKeep || c.MissingCount() == 0 {
-			continue
+		if f.Stat == StatKeep {
+			return nil
 		}
 		if f.Kind == tabprep.Numeric {
-			changed = append(changed, fillNumeric(c, float64(f.Number)))
-			continue
+			out[j] = fillNumeric(c, float64(f.Number))
+			return nil
 		}
-		nc, err := fillLevel(c, f.Level)
-		if err != nil {
-			return nil, err
+		if c.MissingCount() == 0 {
+			return nil
 		}
-		changed = append(changed, nc)
+		out[j], err = fillLevel(c, f.Level)
+		return err
+	})
+	if err != nil {
+		return nil, err
 	}
+	changed := slices.DeleteFunc(out, func(c *tabprep.Column) bool { return c == nil })
 	return data.With(changed...)
 }
 
-// fillNumeric returns a copy of c with every NaN replaced by v.
+// fillNumeric returns a copy of c with every NaN replaced by v, or nil if
+// c has no NaN. It reads c once up to its first gap, and copies only then.
 func fillNumeric(c *tabprep.Column, v float64) *tabprep.Column {
-	x := slices.Clone(c.Float64s())
-	for i, y := range x {
+	src := c.Float64s()
+	first := slices.IndexFunc(src, func(y float64) bool { return y != y })
+	if first < 0 {
+		return nil
+	}
+	x := make([]float64, len(src))
+	copy(x, src[:first])
+	for i := first; i < len(src); i++ {
+		y := src[i]
 		if y != y {
-			x[i] = v
+			y = v
 		}
+		x[i] = y
 	}
 	return tabprep.AdoptNumeric(c.Name(), x)
 }
@@ -114,13 +130,19 @@ func fillKernel(op string, p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc,
 
 // fitSelected fits rule r on each of cols, decided by the step itself.
 func fitSelected(op string, cols []*tabprep.Column, r Rule) (FillParams, error) {
-	p := FillParams{Columns: make([]ColumnFill, 0, len(cols))}
-	for _, c := range cols {
-		f, err := fitRule(op, c, r, "step")
-		if err != nil {
-			return FillParams{}, err
-		}
-		p.Columns = append(p.Columns, f)
+	p := FillParams{Columns: make([]ColumnFill, len(cols))}
+	rows := 0
+	if len(cols) > 0 {
+		rows = cols[0].Len()
+	}
+	// Columns are fitted on all cores; each writes only its own decision.
+	err := par.Each(len(cols), rows, func(j int) error {
+		var err error
+		p.Columns[j], err = fitRule(op, cols[j], r, "step")
+		return err
+	})
+	if err != nil {
+		return FillParams{}, err
 	}
 	return p, nil
 }

@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/par"
 	"github.com/tabprep/tabprep/internal/quantile"
 )
 
@@ -213,12 +214,16 @@ func (m *mapper) frame(data *tabprep.Frame) (*tabprep.Frame, error) {
 		return nil, err
 	}
 	out := make([]*tabprep.Column, len(cols))
-	for j, c := range cols {
-		vals, err := m.column(j, c.Float64s())
+	err = par.Each(len(cols), data.NumRows(), func(j int) error {
+		vals, err := m.column(j, cols[j].Float64s())
 		if err != nil {
-			return nil, err
+			return err
 		}
 		out[j] = tabprep.AdoptNumeric(m.names[j], vals)
+		return nil
+	})
+	if err != nil {
+		return nil, err
 	}
 	return data.With(out...)
 }

@@ -5,6 +5,7 @@ import (
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/internal/moment"
+	"github.com/tabprep/tabprep/internal/par"
 	"github.com/tabprep/tabprep/state"
 )
 
@@ -180,8 +181,10 @@ func (a *zscoreAcc) Add(chunk *tabprep.Frame) error {
 	if err != nil {
 		return err
 	}
-	for j, c := range cols {
-		s := spreadOf(c.Float64s())
+	// Columns are independent: fit them on all cores. Each call writes
+	// only its own spread, so the result is the serial loop's, bit for bit.
+	return par.Each(len(cols), chunk.NumRows(), func(j int) error {
+		s := spreadOf(cols[j].Float64s())
 		if math.IsInf(s.Mean, 0) || math.IsNaN(s.Mean) || math.IsInf(s.M2, 0) {
 			// Rare, so looked into only now: an infinite value, or
 			// values so large that their squares overflow.
@@ -191,8 +194,8 @@ func (a *zscoreAcc) Add(chunk *tabprep.Frame) error {
 			return tabprep.Errorf(op, tabprep.ErrValue, a.names[j], "the sum of squares overflows float64; rescale the column (divide it by a power of ten) first")
 		}
 		a.spreads[j] = mergeSpread(a.spreads[j], s)
-	}
-	return nil
+		return nil
+	})
 }
 
 // Merge folds another z-score accumulator, fitted on other rows of the same
