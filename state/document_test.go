@@ -150,6 +150,10 @@ func TestFittedStepsErrors(t *testing.T) {
 	_, err = d.FittedSteps()
 	require.EqualError(t, err, `state: step 0: state: step test.shift: spec: json: unknown field "extra"`)
 
+	d.Steps = []state.Record{{Kind: "test.shift", Spec: json.RawMessage(`{"Column":"x"}`), Params: json.RawMessage(`{"by":1}`)}}
+	_, err = d.FittedSteps()
+	require.EqualError(t, err, `state: step 0: state: step test.shift: spec: field "Column" at "$": names are case-sensitive; write "column"`)
+
 	d.Steps = []state.Record{{Kind: "test.shift", Spec: json.RawMessage(`{"column":"x"}`), Params: json.RawMessage(`{"by":"NaN"}`)}}
 	steps, err := d.FittedSteps()
 	require.NoError(t, err)

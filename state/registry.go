@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"slices"
+	"strings"
 	"sync"
 
 	"github.com/tabprep/tabprep"
@@ -151,6 +152,9 @@ func Decode(kind string, spec, params []byte) (Fitted, error) {
 	return dec(spec, params)
 }
 
+// strictUnmarshal decodes b into v, refusing unknown fields, trailing data
+// and field names in another case than the one v's type uses (encoding/json
+// alone matches names case-insensitively).
 func strictUnmarshal(b []byte, v any) error {
 	d := json.NewDecoder(bytes.NewReader(b))
 	d.DisallowUnknownFields()
@@ -159,6 +163,50 @@ func strictUnmarshal(b []byte, v any) error {
 	}
 	if d.More() {
 		return fmt.Errorf("trailing data after the JSON value")
+	}
+	canon, err := json.Marshal(v)
+	if err != nil {
+		return err
+	}
+	var got, want any
+	if json.Unmarshal(b, &got) != nil || json.Unmarshal(canon, &want) != nil {
+		return nil // v's own encoding is not plain JSON; nothing to compare
+	}
+	return sameCase(got, want, "")
+}
+
+// sameCase reports a key of got that is missing from want while want has
+// the same key in another case.
+func sameCase(got, want any, at string) error {
+	switch g := got.(type) {
+	case map[string]any:
+		w, ok := want.(map[string]any)
+		if !ok {
+			return nil
+		}
+		for k, gv := range g {
+			if wv, ok := w[k]; ok {
+				if err := sameCase(gv, wv, at+"."+k); err != nil {
+					return err
+				}
+				continue
+			}
+			for wk := range w {
+				if strings.EqualFold(k, wk) {
+					return fmt.Errorf("field %q at %q: names are case-sensitive; write %q", k, "$"+at, wk)
+				}
+			}
+		}
+	case []any:
+		w, ok := want.([]any)
+		if !ok {
+			return nil
+		}
+		for i := range min(len(g), len(w)) {
+			if err := sameCase(g[i], w[i], fmt.Sprintf("%s[%d]", at, i)); err != nil {
+				return err
+			}
+		}
 	}
 	return nil
 }
