@@ -68,7 +68,7 @@ func testDoc(t *testing.T) (*state.Document, *tabprep.Frame) {
 	return doc, train
 }
 
-func encode(t *testing.T, doc *state.Document) []byte {
+func encodeDoc(t *testing.T, doc *state.Document) []byte {
 	var buf bytes.Buffer
 	require.NoError(t, state.Write(&buf, doc))
 	return buf.Bytes()
@@ -76,7 +76,7 @@ func encode(t *testing.T, doc *state.Document) []byte {
 
 func TestDocumentRoundTrip(t *testing.T) {
 	doc, train := testDoc(t)
-	b := encode(t, doc)
+	b := encodeDoc(t, doc)
 	got, err := state.Read(bytes.NewReader(b), state.ReadOptions{})
 	require.NoError(t, err)
 	require.Equal(t, state.FormatName, got.Format)
@@ -97,12 +97,12 @@ func TestDocumentRoundTrip(t *testing.T) {
 	_, err = steps[0].RowKernel(tabprep.NewRowLayout(train.Schema()))
 	require.Error(t, err)
 	// Writing again gives the same bytes: the encoding is deterministic.
-	require.Equal(t, b, encode(t, got))
+	require.Equal(t, b, encodeDoc(t, got))
 }
 
 func TestReadErrors(t *testing.T) {
 	doc, _ := testDoc(t)
-	good := string(encode(t, doc))
+	good := string(encodeDoc(t, doc))
 	edit := func(old, new string) string {
 		require.Contains(t, good, old)
 		return strings.Replace(good, old, new, 1)
@@ -192,6 +192,6 @@ func TestChecksumCoversSteps(t *testing.T) {
 	d := *doc
 	d.Steps = append([]state.Record(nil), doc.Steps...)
 	d.Steps[0].Params = json.RawMessage(`{"by":0}`)
-	_, err := state.Read(bytes.NewReader(encode(t, &d)), state.ReadOptions{})
+	_, err := state.Read(bytes.NewReader(encodeDoc(t, &d)), state.ReadOptions{})
 	require.True(t, errors.Is(err, state.ErrChecksum))
 }
