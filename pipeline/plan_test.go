@@ -1,6 +1,7 @@
 package pipeline_test
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sync"
@@ -211,4 +212,49 @@ func TestTransformInto(t *testing.T) {
 	require.NoError(t, err)
 	lacking := tabprep.MustFrame(tabprep.NewNumeric("x", make([]float64, 40)))
 	require.ErrorIs(t, plan.TransformInto(dst, lacking), tabprep.ErrSchema)
+}
+
+// TestServingPlanConcurrent shares the quickstart pipeline's plan among 64
+// goroutines, half through Plan.ApplyFloats and half through Runners; under
+// -race it proves the plan is safe for concurrent use, and every answer is
+// checked against the batch transform.
+func TestServingPlanConcurrent(t *testing.T) {
+	fitted, data := servingPipeline(t)
+	plan, err := fitted.Compile()
+	require.NoError(t, err)
+	batch, err := fitted.Transform(data)
+	require.NoError(t, err)
+	var wg sync.WaitGroup
+	bad := make(chan string, 64)
+	for g := 0; g < 64; g++ {
+		wg.Add(1)
+		go func(g int) {
+			defer wg.Done()
+			run := plan.Runner()
+			dst := make([]float64, plan.OutputWidth())
+			for i := g; i < data.NumRows(); i += 16 {
+				var err error
+				if g%2 == 0 {
+					err = plan.ApplyFloats(dst, rowOf(data, i))
+				} else {
+					err = run.ApplyFloats(dst, rowOf(data, i))
+				}
+				if err != nil {
+					bad <- err.Error()
+					return
+				}
+				for j, v := range dst {
+					if math.Float64bits(v) != math.Float64bits(batch.Col(j).Value(i)) {
+						bad <- fmt.Sprintf("row %d column %s: plan %v, batch %v", i, batch.Col(j).Name(), v, batch.Col(j).Value(i))
+						return
+					}
+				}
+			}
+		}(g)
+	}
+	wg.Wait()
+	close(bad)
+	for msg := range bad {
+		t.Fatal(msg)
+	}
 }
