@@ -10,22 +10,9 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
-
-// rowOf returns row i of f as cells laid out by f's columns.
-func rowOf(f *tabprep.Frame, i int) []tabprep.Cell {
-	out := make([]tabprep.Cell, f.NumCols())
-	for j := range out {
-		c := f.Col(j)
-		if c.Kind() == tabprep.Numeric {
-			out[j].Num = c.Value(i)
-		} else {
-			out[j].Str = c.Level(i)
-		}
-	}
-	return out
-}
 
 func requireSameCell(t *testing.T, c *tabprep.Column, i int, got tabprep.Cell) {
 	t.Helper()
@@ -65,7 +52,7 @@ func TestPlanMatchesBatch(t *testing.T) {
 	require.NoError(t, err)
 	dst := make([]tabprep.Cell, plan.OutputWidth())
 	for i := 0; i < data.NumRows(); i++ {
-		require.NoError(t, plan.Apply(dst, rowOf(data, i)))
+		require.NoError(t, plan.Apply(dst, steptest.Row(data, i)))
 		for j := range dst {
 			requireSameCell(t, batch.Col(j), i, dst[j])
 		}
@@ -157,7 +144,7 @@ func TestPlanConcurrent(t *testing.T) {
 			defer wg.Done()
 			dst := make([]tabprep.Cell, plan.OutputWidth())
 			for i := g; i < data.NumRows(); i += 3 {
-				if err := plan.Apply(dst, rowOf(data, i)); err != nil {
+				if err := plan.Apply(dst, steptest.Row(data, i)); err != nil {
 					bad <- err.Error()
 					return
 				}
@@ -235,9 +222,9 @@ func TestServingPlanConcurrent(t *testing.T) {
 			for i := g; i < data.NumRows(); i += 16 {
 				var err error
 				if g%2 == 0 {
-					err = plan.ApplyFloats(dst, rowOf(data, i))
+					err = plan.ApplyFloats(dst, steptest.Row(data, i))
 				} else {
-					err = run.ApplyFloats(dst, rowOf(data, i))
+					err = run.ApplyFloats(dst, steptest.Row(data, i))
 				}
 				if err != nil {
 					bad <- err.Error()

@@ -7,15 +7,16 @@ import (
 	"testing"
 
 	"github.com/tabprep/tabprep"
-	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
 	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 	"github.com/tabprep/tabprep/scale"
 )
 
 // servingPipeline is the quickstart's preprocessing (impute, one-hot,
-// ordinal, z-score) fitted on the demo data without its outcome.
+// ordinal, z-score: demodata.Pipeline) fitted on the demo data without its
+// outcome.
 func servingPipeline(tb testing.TB) (*pipeline.Fitted, *tabprep.Frame) {
 	tb.Helper()
 	data, err := tabprep.ReadCSV(bytes.NewReader(demodata.CSV), nil)
@@ -25,16 +26,7 @@ func servingPipeline(tb testing.TB) (*pipeline.Fitted, *tabprep.Frame) {
 	if data, err = data.Without("no_show", "booked_on"); err != nil {
 		tb.Fatal(err)
 	}
-	p := pipeline.New(
-		pipeline.Use(impute.Mean{Columns: tabprep.Names("pet_age", "distance_km")}),
-		pipeline.Use(impute.MostFrequent{Columns: tabprep.Names("reminder")}),
-		pipeline.Use(encode.OneHot{Columns: tabprep.Names("clinic", "species", "reminder")}),
-		pipeline.Use(encode.Ordinal{
-			Columns: tabprep.Names("visit_type"),
-			Order:   map[string][]string{"visit_type": {"vaccination", "checkup", "follow_up", "dental", "surgery"}},
-		}),
-		pipeline.Use(scale.ZScore{Columns: tabprep.Names("days_ahead", "pet_age", "distance_km", "prior_no_shows")}),
-	)
+	p := demodata.Pipeline()
 	fitted, err := p.Fit(data)
 	if err != nil {
 		tb.Fatal(err)
@@ -151,7 +143,7 @@ func servingRows(b *testing.B) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
 	rows := make([][]tabprep.Cell, data.NumRows())
 	got, want := make([]float64, 19), make([]float64, 19)
 	for i := range rows {
-		rows[i] = rowOf(data, i)
+		rows[i] = steptest.Row(data, i)
 		if err := plan.ApplyFloats(got, rows[i]); err != nil {
 			b.Fatal(err)
 		}

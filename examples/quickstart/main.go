@@ -23,11 +23,8 @@ import (
 	"text/tabwriter"
 
 	"github.com/tabprep/tabprep"
-	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
-	"github.com/tabprep/tabprep/impute"
 	"github.com/tabprep/tabprep/pipeline"
-	"github.com/tabprep/tabprep/scale"
 	"github.com/tabprep/tabprep/split"
 )
 
@@ -37,23 +34,6 @@ func main() {
 	if err := run(os.Stdout, *statePath); err != nil {
 		log.Fatalf("quickstart: %v", err)
 	}
-}
-
-// Pipeline returns the preprocessing of the demo data: fill gaps, turn the
-// categories into numbers, and rescale the numeric columns.
-func Pipeline() *pipeline.Pipeline {
-	numeric := tabprep.Names("days_ahead", "pet_age", "distance_km", "prior_no_shows")
-	return pipeline.New(
-		pipeline.Use(impute.Mean{Columns: tabprep.Names("pet_age", "distance_km")}),
-		pipeline.Use(impute.MostFrequent{Columns: tabprep.Names("reminder")}),
-		pipeline.Use(encode.OneHot{Columns: tabprep.Names("clinic", "species", "reminder")}),
-		pipeline.Use(encode.Ordinal{
-			Columns: tabprep.Names("visit_type"),
-			// Ordered by how much of the clinic's time the visit takes.
-			Order: map[string][]string{"visit_type": {"vaccination", "checkup", "follow_up", "dental", "surgery"}},
-		}),
-		pipeline.Use(scale.ZScore{Columns: numeric}),
-	)
 }
 
 // Load reads the embedded demo data. The outcome no_show is read as a
@@ -86,12 +66,12 @@ func run(w io.Writer, statePath string) error {
 
 	// 2. Fitting on the whole frame is refused: the holdout would leak
 	// into the fitted statistics.
-	_, err = Pipeline().Fit(tagged)
+	_, err = demodata.Pipeline().Fit(tagged)
 	fmt.Fprintln(w, "== Fitting on all rows, on purpose")
 	fmt.Fprintf(w, "refused (errors.Is(err, tabprep.ErrHoldout) = %v):\n  %v\n\n", errors.Is(err, tabprep.ErrHoldout), err)
 
 	// 3. Fit on the train rows only.
-	fitted, err := Pipeline().Fit(tagged.Train())
+	fitted, err := demodata.Pipeline().Fit(tagged.Train())
 	if err != nil {
 		return err
 	}

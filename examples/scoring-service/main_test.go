@@ -17,11 +17,8 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
-	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
-	"github.com/tabprep/tabprep/impute"
 	"github.com/tabprep/tabprep/pipeline"
-	"github.com/tabprep/tabprep/scale"
 )
 
 // fixture fits the demo pipeline on the demo data (the outcome left out, as
@@ -33,13 +30,7 @@ func fixture(t *testing.T) (*pipeline.Fitted, *tabprep.Frame, string) {
 	require.NoError(t, err)
 	data, err = data.Without("no_show", "booked_on")
 	require.NoError(t, err)
-	p := pipeline.New(
-		pipeline.Use(impute.Mean{Columns: tabprep.Names("pet_age", "distance_km")}),
-		pipeline.Use(impute.MostFrequent{Columns: tabprep.Names("reminder")}),
-		pipeline.Use(encode.OneHot{Columns: tabprep.Names("clinic", "species", "reminder")}),
-		pipeline.Use(encode.Ordinal{Columns: tabprep.Names("visit_type")}),
-		pipeline.Use(scale.ZScore{}),
-	)
+	p := demodata.Pipeline()
 	train, err := data.Slice(0, 1500)
 	require.NoError(t, err)
 	fitted, err := p.Fit(train)

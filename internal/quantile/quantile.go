@@ -96,35 +96,35 @@ func Select(x []float64, k int) {
 // Of returns quantile p ∈ [0, 1] of x by method m. x is scratch: it must
 // hold no NaN, and its order is changed. It returns NaN for empty x.
 func Of(x []float64, p float64, m Method) float64 {
-	n := len(x)
-	if n == 0 {
+	if len(x) == 0 {
 		return math.NaN()
 	}
-	h := m.Position(p, n)
-	lo := int(math.Floor(h)) - 1
-	frac := h - math.Floor(h)
+	lo, frac := m.split(p, len(x))
 	Select(x, lo)
 	v := x[lo]
-	if frac == 0 || lo+1 >= n {
+	if frac == 0 || lo+1 >= len(x) {
 		return v
 	}
 	// After Select the next order statistic is the minimum of the rest.
-	next := slices.Min(x[lo+1:])
-	return v + frac*(next-v)
+	return v + frac*(slices.Min(x[lo+1:])-v)
+}
+
+// split returns the 0-based index of the order statistic below quantile p
+// of n values and the fraction of the way to the next one.
+func (m Method) split(p float64, n int) (int, float64) {
+	h := m.Position(p, n)
+	return int(math.Floor(h)) - 1, h - math.Floor(h)
 }
 
 // Sorted returns quantile p of sorted data by method m, in constant time.
 // It returns NaN for empty sorted.
 func Sorted(sorted []float64, p float64, m Method) float64 {
-	n := len(sorted)
-	if n == 0 {
+	if len(sorted) == 0 {
 		return math.NaN()
 	}
-	h := m.Position(p, n)
-	lo := int(math.Floor(h)) - 1
-	frac := h - math.Floor(h)
+	lo, frac := m.split(p, len(sorted))
 	v := sorted[lo]
-	if frac == 0 || lo+1 >= n {
+	if frac == 0 || lo+1 >= len(sorted) {
 		return v
 	}
 	return v + frac*(sorted[lo+1]-v)

@@ -42,24 +42,7 @@ func RowsMatch(t testing.TB, train, data *tabprep.Frame, stages ...pipeline.Stag
 	require.Equal(t, batch.Names(), plan.Output().Names())
 	in, err := fitted.Input().Conform("steptest", data)
 	require.NoError(t, err)
-	dst := make([]tabprep.Cell, plan.OutputWidth())
-	for i := 0; i < data.NumRows(); i++ {
-		src := Row(in, i)
-		require.NoError(t, plan.Apply(dst, src), "row %d", i)
-		for j, cell := range dst {
-			c := batch.Col(j)
-			if c.Kind() == tabprep.Numeric {
-				want := c.Value(i)
-				same := math.Float64bits(want) == math.Float64bits(cell.Num) || (math.IsNaN(want) && math.IsNaN(cell.Num))
-				require.True(t, same, "row %d column %s: batch %v, plan %v", i, c.Name(), want, cell.Num)
-			} else {
-				require.Equal(t, c.Level(i), cell.Str, "row %d column %s", i, c.Name())
-			}
-		}
-		if !raceEnabled {
-			require.Zero(t, testing.AllocsPerRun(20, func() { _ = plan.Apply(dst, src) }), "row %d allocates", i)
-		}
-	}
+	MatchBatch(t, plan.Apply, plan.Output(), in, batch)
 	return fitted, plan
 }
 

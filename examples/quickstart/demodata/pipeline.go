@@ -1,0 +1,26 @@
+package demodata
+
+import (
+	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/encode"
+	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/pipeline"
+	"github.com/tabprep/tabprep/scale"
+)
+
+// Pipeline returns the preprocessing of the demo data that the quickstart,
+// the scoring service and the serving benchmarks share: fill gaps, turn the
+// categories into numbers, and rescale the numeric columns.
+func Pipeline() *pipeline.Pipeline {
+	return pipeline.New(
+		pipeline.Use(impute.Mean{Columns: tabprep.Names("pet_age", "distance_km")}),
+		pipeline.Use(impute.MostFrequent{Columns: tabprep.Names("reminder")}),
+		pipeline.Use(encode.OneHot{Columns: tabprep.Names("clinic", "species", "reminder")}),
+		pipeline.Use(encode.Ordinal{
+			Columns: tabprep.Names("visit_type"),
+			// Ordered by how much of the clinic's time the visit takes.
+			Order: map[string][]string{"visit_type": {"vaccination", "checkup", "follow_up", "dental", "surgery"}},
+		}),
+		pipeline.Use(scale.ZScore{Columns: tabprep.Names("days_ahead", "pet_age", "distance_km", "prior_no_shows")}),
+	)
+}
