@@ -267,3 +267,31 @@ func TestParseNumberRowKernelLong(t *testing.T) {
 	require.NoError(t, err)
 	steptest.MatchBatch(t, run, out, distances(standard, short), zeroAlloc)
 }
+
+// FuzzParseNumberRowKernel checks that the row kernel, parsing a string the
+// layout does not list, gives the cell of the batch transform bit for bit.
+func FuzzParseNumberRowKernel(f *testing.F) {
+	for _, tc := range localeCases {
+		f.Add(tc.cell, tc.decimal == ",")
+	}
+	f.Fuzz(func(t *testing.T, cell string, comma bool) {
+		if len(cell) > 64 || cell == "" {
+			return
+		}
+		s := encode.ParseNumber{Columns: tabprep.Names("distance_km"), Thousands: ",", Percent: true, Trim: true}
+		if comma {
+			s.Decimal, s.Thousands = ",", "."
+		}
+		train := distances("1")
+		p, err := s.Fit(train)
+		require.NoError(t, err)
+		run, out, err := steptest.Compile(s.RowKernel, p, train.Schema())
+		require.NoError(t, err)
+		batch, err := s.Transform(p, distances(cell))
+		require.NoError(t, err)
+		dst := make([]tabprep.Cell, len(out.Columns))
+		require.NoError(t, run(dst, []tabprep.Cell{{Str: cell}, {}}))
+		want := column(t, batch, "distance_km")[0]
+		require.True(t, math.Float64bits(want) == math.Float64bits(dst[0].Num) || math.IsNaN(want) && math.IsNaN(dst[0].Num), "cell %q: batch %v, kernel %v", cell, want, dst[0].Num)
+	})
+}
