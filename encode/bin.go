@@ -196,3 +196,46 @@ func (s Bin) Transform(p BinParams, data *tabprep.Frame) (*tabprep.Frame, error)
 func binOf(cuts []float64, v float64) int {
 	return sort.Search(len(cuts), func(i int) bool { return cuts[i] > v })
 }
+
+// RowKernel returns a row function that writes the same cells as
+// [Bin.Transform], without allocating: a bin index with Codes, or else the
+// bin's interval level and its code in the output layout.
+func (s Bin) RowKernel(p BinParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.bin row"
+	sources := sourceNames(p.Columns, func(c BinColumn) string { return c.Name })
+	fields := make([][]tabprep.Field, len(p.Columns))
+	levels := make([][]string, len(p.Columns))
+	for i, bc := range p.Columns {
+		f := tabprep.Field{Name: bc.Name, Kind: tabprep.Numeric}
+		if !s.Codes {
+			levels[i] = bc.Levels()
+			f = tabprep.Field{Name: bc.Name, Kind: tabprep.Categorical, Levels: levels[i]}
+		}
+		fields[i] = []tabprep.Field{f}
+	}
+	at, _, _, err := arrange(op, l, sources, tabprep.Numeric, fields)
+	if err != nil {
+		return nil, err
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for i, bc := range p.Columns {
+			c := &regs[at[i]]
+			v := c.Num
+			switch {
+			case s.Codes:
+				if v == v {
+					c.Num = float64(binOf(bc.Cuts, v))
+				}
+			case v != v:
+				c.Str, c.Code = "", tabprep.MissingCode
+			default:
+				b := binOf(bc.Cuts, v)
+				c.Str, c.Code = levels[i][b], int32(b)
+			}
+		}
+		return nil
+	}
+	return fn, nil
+}
+
+var _ tabprep.RowKernel[BinParams] = Bin{}

@@ -10,6 +10,7 @@ import (
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/encode"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
 
@@ -122,4 +123,21 @@ func TestBinErrors(t *testing.T) {
 	p, err := encode.Bin{}.Fit(tabprep.MustFrame(tabprep.NewNumeric("pet_age", []float64{2, 2, 2})))
 	require.NoError(t, err)
 	require.Empty(t, p.Columns[0].Cuts, "a constant column has one bin")
+}
+
+func TestBinRowKernel(t *testing.T) {
+	cols := tabprep.Names("days_ahead")
+	for _, s := range []encode.Bin{
+		{Columns: cols},
+		{Columns: cols, Codes: true},
+		{Columns: cols, Method: encode.BinWidth, Bins: 3},
+		{Columns: cols, Method: encode.BinEdges, Edges: map[string][]float64{"days_ahead": {0, 4, 30}}},
+	} {
+		requireKernel(t, s)
+	}
+	// The interval levels and their codes feed the next step's kernel.
+	steptest.RowsMatch(t, clinicTrain(), clinicNew(t), pipeline.Use(encode.Bin{Columns: cols, Bins: 3}),
+		pipeline.Use(encode.OneHot{Columns: cols, Missing: encode.MissingColumn}))
+	_, err := kernelOf(encode.Bin{}, encode.BinParams{Columns: []encode.BinColumn{{Name: "clinic"}}}, clinicTrain().Schema())
+	require.ErrorIs(t, err, tabprep.ErrKind)
 }

@@ -2,6 +2,7 @@ package encode
 
 import (
 	"fmt"
+	"math"
 	"slices"
 
 	"github.com/tabprep/tabprep"
@@ -261,4 +262,103 @@ func sourceNames[T any](cols []T, name func(T) string) []string {
 		out[i] = name(c)
 	}
 	return out
+}
+
+// tableColumn is one source column of a [tableKernel]: the width output
+// values of each level of the layout, worked out when the kernel is made.
+type tableColumn struct {
+	// values holds width values per layout code; ok says per code whether
+	// the level has values (false: a bad cell, by the step's OnBad).
+	values []float64
+	ok     []bool
+	// missing are the values of a missing cell.
+	missing []float64
+	// unseen writes the values of a level the layout does not list into
+	// out and reports whether it has values; it must not allocate.
+	unseen func(level string, out []tabprep.Cell) bool
+}
+
+// tableKernel is the row kernel of a step that makes width numeric outputs
+// of each categorical source cell by a table per layout code, as a batch
+// transform does per level: fields[i] are the outputs of sources[i], laid
+// out by [arrange], and build returns the table of source i for its layout
+// levels. A cell without values is NaN in every output, or under BadError
+// an error wrapping [ErrBadCell] that says it is not what.
+func tableKernel(op string, l *tabprep.RowLayout, sources []string, fields [][]tabprep.Field, bad OnBad, what string, build func(i int, levels []string) tableColumn) (tabprep.RowFunc, error) {
+	at, levels, to, err := arrange(op, l, sources, tabprep.Categorical, fields)
+	if err != nil {
+		return nil, err
+	}
+	type plan struct {
+		tableColumn
+		from, to, width int
+	}
+	plans := make([]plan, len(sources))
+	for i := range sources {
+		plans[i] = plan{tableColumn: build(i, levels[i]), from: at[i], to: to[i], width: len(fields[i])}
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for i := range plans {
+			pl := &plans[i]
+			// Read the source before writing: an output of its own name
+			// shares its slot.
+			c := regs[pl.from]
+			out := regs[pl.to : pl.to+pl.width]
+			ok := true
+			switch {
+			case c.Code >= 0:
+				if ok = pl.ok[c.Code]; ok {
+					for j, v := range pl.values[int(c.Code)*pl.width : int(c.Code+1)*pl.width] {
+						out[j].Num = v
+					}
+				}
+			case c.Code == tabprep.MissingCode:
+				for j, v := range pl.missing {
+					out[j].Num = v
+				}
+			default:
+				ok = pl.unseen(c.Str, out)
+			}
+			if ok {
+				continue
+			}
+			if bad == BadError {
+				return tabprep.Errorf(op, ErrBadCell, sources[i], "%q is not %s; fix the cell, adjust the format options, or set Bad to %q", c.Str, what, BadMissing)
+			}
+			for j := range out {
+				out[j].Num = math.NaN()
+			}
+		}
+		return nil
+	}
+	return fn, nil
+}
+
+// numericFields returns, per source, numeric output fields named by names.
+func numericFields(sources []string, names func(source string) []string) [][]tabprep.Field {
+	fields := make([][]tabprep.Field, len(sources))
+	for i, s := range sources {
+		for _, name := range names(s) {
+			fields[i] = append(fields[i], tabprep.Field{Name: name, Kind: tabprep.Numeric})
+		}
+	}
+	return fields
+}
+
+// constTable is the table of a column whose every layout level maps
+// through value: the values of level k are value(levels[k]), and an unseen
+// level gets unseen.
+func constTable(levels []string, width int, value func(level string) []float64, missing, unseen []float64) tableColumn {
+	t := tableColumn{values: make([]float64, len(levels)*width), ok: make([]bool, len(levels)), missing: missing}
+	for k, lv := range levels {
+		copy(t.values[k*width:], value(lv))
+		t.ok[k] = true
+	}
+	t.unseen = func(_ string, out []tabprep.Cell) bool {
+		for j, v := range unseen {
+			out[j].Num = v
+		}
+		return true
+	}
+	return t
 }

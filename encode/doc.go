@@ -44,6 +44,12 @@
 //
 // # Row kernels
 //
-// [OneHot] and [Ordinal] implement [tabprep.RowKernel]: a compiled serving
-// plan applies them to one row with no allocation.
+// Every step of the package implements [tabprep.RowKernel]: a compiled
+// serving plan applies it to one row, with the same cells as its batch
+// transform. What a step works out per level in a batch, its row kernel
+// works out per level of the plan's input when the plan is compiled and
+// looks up by the cell's code, so a row allocates nothing. A level the plan
+// has not listed is handled in the row: hashed, or parsed — [ParseNumber]
+// without allocating, [ParseTime] with the exceptions its RowKernel lists.
+// [Target] reads no target in a row; a pipeline keeps it out.
 package encode

@@ -89,3 +89,32 @@ func (s Frequency) Transform(p FrequencyParams, data *tabprep.Frame) (*tabprep.F
 	}
 	return assemble(op, data, outs)
 }
+
+// RowKernel returns a row function that writes the same cells as
+// [Frequency.Transform], without allocating: the count or share of each
+// level of the layout is looked up by its code in a table made here.
+func (s Frequency) RowKernel(p FrequencyParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.frequency row"
+	sources := sourceNames(p.Columns, func(c FrequencyColumn) string { return c.Name })
+	fields := numericFields(sources, func(s string) []string { return []string{s} })
+	return tableKernel(op, l, sources, fields, BadMissing, "", func(i int, levels []string) tableColumn {
+		fc := p.Columns[i]
+		scale := 1.0
+		if s.Share && fc.Rows > 0 {
+			scale = 1 / float64(fc.Rows)
+		}
+		index := indexOf(fc.Levels)
+		// The products are the ones Transform forms, so the values agree
+		// bit for bit.
+		value := func(level string) []float64 {
+			n := 0
+			if k, ok := index[level]; ok {
+				n = fc.Counts[k]
+			}
+			return []float64{float64(n) * scale}
+		}
+		return constTable(levels, 1, value, []float64{float64(fc.Missing) * scale}, []float64{float64(0) * scale})
+	})
+}
+
+var _ tabprep.RowKernel[FrequencyParams] = Frequency{}

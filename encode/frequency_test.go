@@ -37,3 +37,9 @@ func TestFrequency(t *testing.T) {
 	require.ErrorIs(t, err, tabprep.ErrKind)
 	require.ErrorContains(t, err, `column "clinic": is numeric`)
 }
+
+func TestFrequencyRowKernel(t *testing.T) {
+	for _, s := range []encode.Frequency{{}, {Share: true}} {
+		requireKernel(t, s)
+	}
+}

@@ -146,3 +146,53 @@ func (s Hash) Transform(p HashParams, data *tabprep.Frame) (*tabprep.Frame, erro
 	}
 	return assemble(op, data, outs)
 }
+
+// RowKernel returns a row function that writes the same cells as
+// [Hash.Transform], without allocating: the bucket and sign of each level
+// of the layout are hashed here, and a level the layout does not list is
+// hashed in the row (the hash reads the string's bytes in place).
+func (s Hash) RowKernel(p HashParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.hash row"
+	if err := s.check(op, p); err != nil {
+		return nil, err
+	}
+	at, levels, to, err := arrange(op, l, p.Columns, tabprep.Categorical, numericFields(p.Columns, p.names))
+	if err != nil {
+		return nil, err
+	}
+	type plan struct {
+		bucket []int
+		sign   []float64
+	}
+	plans := make([]plan, len(p.Columns))
+	for i := range plans {
+		pl := plan{bucket: make([]int, len(levels[i])), sign: make([]float64, len(levels[i]))}
+		for k, lv := range levels[i] {
+			pl.bucket[k], pl.sign[k] = bucketOf(p.Seed, lv, p.Buckets)
+		}
+		plans[i] = pl
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for i := range plans {
+			c := &regs[at[i]]
+			out := regs[to[i] : to[i]+p.Buckets]
+			var b int
+			var sign float64
+			switch {
+			case c.Code >= 0:
+				b, sign = plans[i].bucket[c.Code], plans[i].sign[c.Code]
+			case c.Code == tabprep.UnseenCode:
+				b, sign = bucketOf(p.Seed, c.Str, p.Buckets)
+			}
+			// The source is dropped, so its slot is not among the outputs.
+			for j := range out {
+				out[j].Num = 0
+			}
+			out[b].Num = sign
+		}
+		return nil
+	}
+	return fn, nil
+}
+
+var _ tabprep.RowKernel[HashParams] = Hash{}

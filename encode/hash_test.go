@@ -97,3 +97,11 @@ func TestHashErrors(t *testing.T) {
 	_, err = encode.Hash{}.Transform(encode.HashParams{Columns: []string{"species"}, Buckets: -1}, clinicTrain())
 	require.ErrorIs(t, err, tabprep.ErrOption)
 }
+
+func TestHashRowKernel(t *testing.T) {
+	for _, s := range []encode.Hash{{Buckets: 1}, {Buckets: 4, Seed: 9}, {Columns: tabprep.Names("species"), Buckets: 16}} {
+		requireKernel(t, s)
+	}
+	_, err := kernelOf(encode.Hash{}, encode.HashParams{Columns: []string{"clinic"}}, clinicTrain().Schema())
+	require.ErrorIs(t, err, tabprep.ErrOption)
+}

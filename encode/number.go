@@ -125,11 +125,10 @@ func (f numberFormat) parse(s string) (float64, bool) {
 			}
 		}
 	}
-	var buf [64]byte
-	b := buf[:0]
+	text := s
+	sign := ""
 	if s != "" && (s[0] == '+' || s[0] == '-') {
-		b = append(b, s[0])
-		s = s[1:]
+		sign, s = s[:1], s[1:]
 	}
 	mant, exp := s, ""
 	i := strings.IndexAny(s, "eE")
@@ -147,28 +146,47 @@ func (f numberFormat) parse(s string) (float64, bool) {
 	if !allDigits(frac) || whole == "" && frac == "" {
 		return 0, false
 	}
-	if f.thousands != "" && strings.Contains(whole, f.thousands) {
-		for i, g := range strings.Split(whole, f.thousands) {
-			if !allDigits(g) || i == 0 && (len(g) < 1 || len(g) > 3) || i > 0 && len(g) != 3 {
+	grouped := f.thousands != "" && strings.Contains(whole, f.thousands)
+	if grouped {
+		// Group by group with Cut rather than Split, which would allocate
+		// the list of groups.
+		rest := whole
+		for n := 0; ; n++ {
+			g, tail, more := strings.Cut(rest, f.thousands)
+			if !allDigits(g) || n == 0 && (len(g) < 1 || len(g) > 3) || n > 0 && len(g) != 3 {
 				return 0, false
 			}
-			b = append(b, g...)
+			if !more {
+				break
+			}
+			rest = tail
 		}
-	} else {
-		if !allDigits(whole) {
-			return 0, false
+	} else if !allDigits(whole) {
+		return 0, false
+	}
+	// A number in the standard form (decimal point, no groups) is handed
+	// to strconv as it is, with no copy; any other is rewritten into it.
+	if grouped || f.decimal != "." {
+		var buf [64]byte
+		b := append(buf[:0], sign...)
+		if grouped {
+			for g := range strings.SplitSeq(whole, f.thousands) {
+				b = append(b, g...)
+			}
+		} else {
+			b = append(b, whole...)
 		}
-		b = append(b, whole...)
+		if hasDec {
+			b = append(b, '.')
+			b = append(b, frac...)
+		}
+		if i >= 0 {
+			b = append(b, 'e')
+			b = append(b, exp...)
+		}
+		text = string(b)
 	}
-	if hasDec {
-		b = append(b, '.')
-		b = append(b, frac...)
-	}
-	if i >= 0 {
-		b = append(b, 'e')
-		b = append(b, exp...)
-	}
-	v, err := strconv.ParseFloat(string(b), 64)
+	v, err := strconv.ParseFloat(text, 64)
 	if err != nil {
 		return 0, false
 	}
@@ -235,3 +253,31 @@ func (s ParseNumber) Transform(p ParseNumberParams, data *tabprep.Frame) (*tabpr
 		return []*tabprep.Column{tabprep.AdoptNumeric(c.Name(), vals)}, nil
 	})
 }
+
+// RowKernel returns a row function that writes the same cells as
+// [ParseNumber.Transform]. A level of the layout was parsed when the kernel
+// was made and is looked up by its code; any other string is parsed in the
+// row without allocating: strconv.ParseFloat reads a number in the
+// standard form (decimal point, no digit groups) in place, and one written
+// with other separators after it is rewritten on the stack; only such a
+// rewritten number of over 32 bytes allocates its copy.
+// A bad cell is missing, or under BadError an error wrapping [ErrBadCell].
+func (s ParseNumber) RowKernel(p ParseNumberParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.parse_number row"
+	f, err := s.format(op)
+	if err != nil {
+		return nil, err
+	}
+	sources := sourceNames(p.Columns, func(c ParseReport) string { return c.Name })
+	fields := numericFields(sources, func(s string) []string { return []string{s} })
+	unseen := func(level string, out []tabprep.Cell) bool {
+		v, ok := f.parse(level)
+		out[0].Num = v
+		return ok
+	}
+	return tableKernel(op, l, sources, fields, s.Bad, "a number in the chosen format", func(_ int, levels []string) tableColumn {
+		return parseTable(levels, 1, f.parseInto, unseen)
+	})
+}
+
+var _ tabprep.RowKernel[ParseNumberParams] = ParseNumber{}

@@ -10,6 +10,7 @@ import (
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/encode"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
 
@@ -200,4 +201,97 @@ func TestParseNumberRoundTrip(t *testing.T) {
 		require.True(t, ok, cell)
 		require.Equal(t, v, got, cell)
 	}
+}
+
+// distances holds numbers as text, with a bad train cell ("n/a").
+func distances(cells ...string) *tabprep.Frame {
+	return tabprep.MustFrame(
+		tabprep.NewCategorical("distance_km", cells),
+		tabprep.NewNumeric("no_show", make([]float64, len(cells))),
+	)
+}
+
+func TestParseNumberRowKernel(t *testing.T) {
+	train := distances("1,234.5", "12", "", "n/a", "3.5%", "0.75")
+	// Unseen strings, good and bad, parsed in the row; seen ones, good and
+	// bad, looked up; a missing cell.
+	fresh := distances("7.25", " 2,500 ", "x", "", "12", "n/a", "-1e3", "1,23")
+	s := encode.ParseNumber{Columns: tabprep.Names("distance_km"), Thousands: ",", Percent: true, Trim: true}
+	steptest.RowsMatch(t, train, fresh, pipeline.Use(s))
+
+	t.Run("bad cell error", func(t *testing.T) {
+		s := encode.ParseNumber{Bad: encode.BadError, Columns: tabprep.Names("distance_km")}
+		good := distances("1.5", "12", "")
+		p, err := s.Fit(good)
+		require.NoError(t, err)
+		_, batchErr := s.Transform(p, distances("x"))
+		require.ErrorIs(t, batchErr, encode.ErrBadCell)
+		fn, err := kernelOf(s, p, good.Schema())
+		require.NoError(t, err)
+		err = fn([]tabprep.Cell{{Str: "x"}, {Num: 0}})
+		require.ErrorIs(t, err, encode.ErrBadCell)
+		require.ErrorContains(t, err, `"x"`)
+		require.NoError(t, fn([]tabprep.Cell{{Str: "2.5"}, {Num: 0}}))
+	})
+	t.Run("options", func(t *testing.T) {
+		_, err := kernelOf(encode.ParseNumber{Decimal: "9"}, encode.ParseNumberParams{}, train.Schema())
+		require.ErrorIs(t, err, tabprep.ErrOption)
+	})
+}
+
+// TestParseNumberRowKernelLong checks the documented allocation bounds: an
+// unseen number in the standard form of any length does not allocate, nor
+// does a rewritten one of up to 32 bytes; a longer rewritten one gives the
+// batch value.
+func TestParseNumberRowKernelLong(t *testing.T) {
+	s := encode.ParseNumber{Columns: tabprep.Names("distance_km"), Thousands: ","}
+	train := distances("1.5")
+	p, err := s.Fit(train)
+	require.NoError(t, err)
+	run, out, err := steptest.Compile(s.RowKernel, p, train.Schema())
+	require.NoError(t, err)
+	standard := "0." + strings.Repeat("3", 60)
+	short := "1,234,567," + strings.Repeat("9", 3) + "." + strings.Repeat("1", 18)
+	long := "1,234,567." + strings.Repeat("7", 40)
+	require.LessOrEqual(t, len(short)-3, 32)
+	cells := distances(standard, short, long)
+	batch, err := s.Transform(p, cells)
+	require.NoError(t, err)
+	dst := make([]tabprep.Cell, len(out.Columns))
+	for i := range cells.NumRows() {
+		src := steptest.Row(cells, i)
+		require.NoError(t, run(dst, src))
+		require.Equal(t, math.Float64bits(column(t, batch, "distance_km")[i]), math.Float64bits(dst[0].Num), "row %d", i)
+	}
+	zeroAlloc, err := s.Transform(p, distances(standard, short))
+	require.NoError(t, err)
+	steptest.MatchBatch(t, run, out, distances(standard, short), zeroAlloc)
+}
+
+// FuzzParseNumberRowKernel checks that the row kernel, parsing a string the
+// layout does not list, gives the cell of the batch transform bit for bit.
+func FuzzParseNumberRowKernel(f *testing.F) {
+	for _, tc := range localeCases {
+		f.Add(tc.cell, tc.decimal == ",")
+	}
+	f.Fuzz(func(t *testing.T, cell string, comma bool) {
+		if len(cell) > 64 || cell == "" {
+			return
+		}
+		s := encode.ParseNumber{Columns: tabprep.Names("distance_km"), Thousands: ",", Percent: true, Trim: true}
+		if comma {
+			s.Decimal, s.Thousands = ",", "."
+		}
+		train := distances("1")
+		p, err := s.Fit(train)
+		require.NoError(t, err)
+		run, out, err := steptest.Compile(s.RowKernel, p, train.Schema())
+		require.NoError(t, err)
+		batch, err := s.Transform(p, distances(cell))
+		require.NoError(t, err)
+		dst := make([]tabprep.Cell, len(out.Columns))
+		require.NoError(t, run(dst, []tabprep.Cell{{Str: cell}, {}}))
+		want := column(t, batch, "distance_km")[0]
+		require.True(t, math.Float64bits(want) == math.Float64bits(dst[0].Num) || math.IsNaN(want) && math.IsNaN(dst[0].Num), "cell %q: batch %v, kernel %v", cell, want, dst[0].Num)
+	})
 }

@@ -309,3 +309,5 @@ func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	}
 	return fn, nil
 }
+
+var _ tabprep.RowKernel[OneHotParams] = OneHot{}

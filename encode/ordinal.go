@@ -185,3 +185,5 @@ func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFu
 	}
 	return fn, nil
 }
+
+var _ tabprep.RowKernel[OrdinalParams] = Ordinal{}

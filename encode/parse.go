@@ -94,3 +94,17 @@ func parseEach(op string, data *tabprep.Frame, reports []ParseReport, run func(c
 	}
 	return assemble(op, data, outs)
 }
+
+// parseTable is the table of a parsing step's column for the levels of a
+// layout: each level parsed once, as [parseColumn] does per level, and a
+// level the layout does not list parsed in the row by unseen.
+func parseTable(levels []string, width int, parse func(level string, dst []float64) bool, unseen func(level string, out []tabprep.Cell) bool) tableColumn {
+	t := tableColumn{values: make([]float64, len(levels)*width), ok: make([]bool, len(levels)), missing: make([]float64, width), unseen: unseen}
+	for k, lv := range levels {
+		t.ok[k] = parse(lv, t.values[k*width:(k+1)*width])
+	}
+	for j := range t.missing {
+		t.missing[j] = math.NaN()
+	}
+	return t
+}

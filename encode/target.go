@@ -419,3 +419,32 @@ func (s Target) Transform(p TargetParams, data *tabprep.Frame) (*tabprep.Frame, 
 func (s Target) Targets() []string { return []string{s.Target} }
 
 var _ tabprep.Supervised = Target{}
+
+// RowKernel returns a row function that writes the same cells as
+// [Target.Transform], the full-train values, without allocating. The
+// target column is not read: a pipeline keeps it out of the row layout
+// (see [tabprep.Supervised]).
+func (s Target) RowKernel(p TargetParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.target row"
+	w := len(p.Prior)
+	for _, tc := range p.Columns {
+		if len(tc.Values) != len(tc.Levels)*w || len(tc.Missing) != w {
+			return nil, tabprep.Errorf(op, tabprep.ErrSchema, tc.Name, "parameters hold %d values for %d levels and %d outputs; fit again", len(tc.Values), len(tc.Levels), w)
+		}
+	}
+	sources := sourceNames(p.Columns, func(c TargetColumn) string { return c.Name })
+	fields := numericFields(sources, p.names)
+	return tableKernel(op, l, sources, fields, BadMissing, "", func(i int, levels []string) tableColumn {
+		tc := p.Columns[i]
+		index := indexOf(tc.Levels)
+		value := func(level string) []float64 {
+			if k, ok := index[level]; ok {
+				return tc.Values[int(k)*w : int(k+1)*w]
+			}
+			return p.Prior
+		}
+		return constTable(levels, w, value, tc.Missing, p.Prior)
+	})
+}
+
+var _ tabprep.RowKernel[TargetParams] = Target{}

@@ -11,6 +11,7 @@ import (
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/encode"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
 
@@ -183,4 +184,23 @@ func TestTargetSaveLoad(t *testing.T) {
 	// The pipeline keeps the target out of its output, and new rows need
 	// not carry it (tabprep.Supervised).
 	require.Equal(t, []string{"clinic", "species", "days_ahead"}, out.Names())
+}
+
+func TestTargetRowKernel(t *testing.T) {
+	// A numeric target replaces the source in place; a categorical one
+	// (species here) appends one column per class. Both leave the target
+	// out of the row, as the pipeline does.
+	for _, s := range []encode.Target{
+		{Target: "no_show", K: 1, F: 0.5, Folds: 2, Seed: 3},
+		{Columns: tabprep.Names("clinic"), Target: "species", K: 2, Folds: 2, Seed: 5},
+	} {
+		_, plan := steptest.RowsMatch(t, clinicTrain(), clinicNew(t), pipeline.Use(s))
+		require.NotContains(t, plan.Input().Names(), s.Target)
+	}
+	s := encode.Target{Columns: tabprep.Names("clinic"), Target: "no_show"}
+	p, err := s.Fit(clinicTrain())
+	require.NoError(t, err)
+	p.Columns[0].Values = p.Columns[0].Values[:1]
+	_, err = kernelOf(s, p, clinicTrain().Schema())
+	require.ErrorIs(t, err, tabprep.ErrSchema)
 }

@@ -139,12 +139,17 @@ func (s ParseTime) setup(op string) (*time.Location, error) {
 	return loc, nil
 }
 
-func (s ParseTime) run(op string, p *ParseTimeParams, loc *time.Location, c *tabprep.Column) ([]*tabprep.Column, ParseReport, error) {
-	parts := p.Parts
-	if len(parts) == 0 {
-		parts = []TimePart{PartUnix}
+// parts returns the parts p writes, Unix seconds when it names none.
+func (p ParseTimeParams) parts() []TimePart {
+	if len(p.Parts) == 0 {
+		return []TimePart{PartUnix}
 	}
-	parse := func(level string, dst []float64) bool {
+	return p.Parts
+}
+
+// parser returns the parse of one level into the values of parts.
+func (s ParseTime) parser(loc *time.Location, parts []TimePart) func(level string, dst []float64) bool {
+	return func(level string, dst []float64) bool {
 		t, err := time.ParseInLocation(s.Layout, level, loc)
 		if err != nil {
 			return false
@@ -154,7 +159,11 @@ func (s ParseTime) run(op string, p *ParseTimeParams, loc *time.Location, c *tab
 		}
 		return true
 	}
-	block, rep, err := parseColumn(op, c, len(parts), s.Bad, "a time in layout "+s.Layout, parse)
+}
+
+func (s ParseTime) run(op string, p *ParseTimeParams, loc *time.Location, c *tabprep.Column) ([]*tabprep.Column, ParseReport, error) {
+	parts := p.parts()
+	block, rep, err := parseColumn(op, c, len(parts), s.Bad, "a time in layout "+s.Layout, s.parser(loc, parts))
 	if err != nil {
 		return nil, rep, err
 	}
@@ -198,3 +207,38 @@ func (s ParseTime) Transform(p ParseTimeParams, data *tabprep.Frame) (*tabprep.F
 		return cols, err
 	})
 }
+
+// RowKernel returns a row function that writes the same cells as
+// [ParseTime.Transform]. A level of the layout was parsed when the kernel
+// was made and is looked up by its code; any other string is parsed in the
+// row by time.ParseInLocation. That allocates nothing for a time that
+// parses and carries no zone, the zone "Z", Location's offset or a
+// whole-hour offset (zones the standard library keeps made); it allocates
+// for another offset, such as +05:45 (a new fixed zone), and for a string
+// that does not parse (its error value). A bad cell is missing, or under
+// BadError an error wrapping [ErrBadCell].
+func (s ParseTime) RowKernel(p ParseTimeParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.parse_time row"
+	loc, err := s.setup(op)
+	if err != nil {
+		return nil, err
+	}
+	parts := p.parts()
+	sources := sourceNames(p.Columns, func(c ParseReport) string { return c.Name })
+	unseen := func(level string, out []tabprep.Cell) bool {
+		t, err := time.ParseInLocation(s.Layout, level, loc)
+		if err != nil {
+			return false
+		}
+		for j, part := range parts {
+			out[j].Num = part.of(t)
+		}
+		return true
+	}
+	parse := s.parser(loc, parts)
+	return tableKernel(op, l, sources, numericFields(sources, p.names), s.Bad, "a time in layout "+s.Layout, func(_ int, levels []string) tableColumn {
+		return parseTable(levels, len(parts), parse, unseen)
+	})
+}
+
+var _ tabprep.RowKernel[ParseTimeParams] = ParseTime{}

@@ -10,6 +10,7 @@ import (
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/encode"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 )
 
@@ -104,4 +105,67 @@ func TestParseTimeErrors(t *testing.T) {
 			require.ErrorContains(t, err, tt.msg)
 		})
 	}
+}
+
+func TestParseTimeRowKernel(t *testing.T) {
+	// Unseen times parsed in the row, the seen bad level "someday" looked
+	// up, and a missing cell; none of these allocates.
+	fresh := tabprep.MustFrame(
+		tabprep.NewCategorical("booked_on", []string{"2025-01-01 10:00", "someday", "", "2024-03-05 14:30", "2023-07-09 00:01"}),
+		tabprep.NewNumeric("no_show", []float64{0, 1, 0, 1, 0}),
+	)
+	for _, s := range []encode.ParseTime{
+		{Columns: tabprep.Names("booked_on"), Layout: "2006-01-02 15:04"},
+		{Columns: tabprep.Names("booked_on"), Layout: "2006-01-02 15:04", Location: "Europe/Berlin",
+			Parts: []encode.TimePart{encode.PartWeekday, encode.PartHour, encode.PartUnix}},
+	} {
+		steptest.RowsMatch(t, bookings(), fresh, pipeline.Use(s))
+	}
+
+	// A zone of "Z", none, or a whole-hour offset does not allocate; an
+	// offset such as +05:45 does (the standard library makes a fixed zone),
+	// and so does a string that does not parse (its error value). All give
+	// the batch cells.
+	s := encode.ParseTime{Layout: time.RFC3339}
+	train := tabprep.MustFrame(tabprep.NewCategorical("booked_on", []string{"2024-03-05T14:30:00Z"}))
+	p, err := s.Fit(train)
+	require.NoError(t, err)
+	run, out, err := steptest.Compile(s.RowKernel, p, train.Schema())
+	require.NoError(t, err)
+	zulu := tabprep.MustFrame(tabprep.NewCategorical("booked_on", []string{"2025-06-01T08:00:00Z", "2025-06-01T08:00:00.5Z"}))
+	batch, err := s.Transform(p, zulu)
+	require.NoError(t, err)
+	steptest.MatchBatch(t, run, out, zulu, batch)
+	other := tabprep.MustFrame(tabprep.NewCategorical("booked_on", []string{"2025-06-01T08:00:00+02:00", "soon", "2025-06-01T08:00:00+05:45"}))
+	batch, err = s.Transform(p, other)
+	require.NoError(t, err)
+	dst := make([]tabprep.Cell, 1)
+	for i, want := range column(t, batch, "booked_on") {
+		src := steptest.Row(other, i)
+		require.NoError(t, run(dst, src))
+		require.Equal(t, math.Float64bits(want), math.Float64bits(dst[0].Num), "row %d", i)
+		if !raceEnabled {
+			// A whole-hour offset takes a zone the standard library keeps
+			// made; +05:45 needs a new one (Go 1.26), and a bad string its
+			// error value: the bound leaves room for either to change a
+			// little.
+			allocs := testing.AllocsPerRun(10, func() { _ = run(dst, src) })
+			if i == 0 {
+				require.Zero(t, allocs, "row %d", i)
+			} else {
+				require.Positive(t, allocs, "row %d", i)
+				require.LessOrEqual(t, allocs, 4.0, "row %d", i)
+			}
+		}
+	}
+
+	s.Bad = encode.BadError
+	_, batchErr := s.Transform(p, other)
+	require.ErrorIs(t, batchErr, encode.ErrBadCell)
+	run, _, err = steptest.Compile(s.RowKernel, p, train.Schema())
+	require.NoError(t, err)
+	require.NoError(t, run(dst, steptest.Row(other, 0)))
+	err = run(dst, steptest.Row(other, 1))
+	require.ErrorIs(t, err, encode.ErrBadCell)
+	require.ErrorContains(t, err, `"soon"`)
 }

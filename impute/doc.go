@@ -44,6 +44,9 @@
 // fill: a train statistic per column used where the frame offers no
 // neighbour (a leading gap for carry forward, a trailing gap for carry
 // backward, a column with no value at all in the frame for every method).
+// For the same reason they have no row kernel: compiling a pipeline with
+// one of them fails with an error naming the step, and such data is
+// transformed in batches.
 //
 // # Model-based fills
 //
@@ -52,8 +55,10 @@
 // regression per chosen column from the others, round after round (chained
 // equations), and freezes the coefficients.
 //
-// [Chained] fills each row on its own and can act on one row; [KNearest]
-// scans every train row for each query row and has no row kernel.
+// Both fill each row on its own and can act on one row. The row kernel of
+// [KNearest] scans every train row for each row with a gap, as its
+// Transform does, with working memory from a pool it keeps, so a row
+// allocates nothing once warm.
 //
 // # Structure
 //

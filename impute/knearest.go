@@ -2,6 +2,7 @@ package impute
 
 import (
 	"math"
+	"sync"
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/internal/moment"
@@ -288,4 +289,50 @@ func siftDown(h []neighbour, i int) {
 		h[i], h[big] = h[big], h[i]
 		i = big
 	}
+}
+
+// RowKernel returns the fill of p for single rows laid out by l: the same
+// exact neighbour search as Transform, by the same code, so the cells are
+// bit-identical. A row's working memory (a distance per train row and the
+// heap of k) comes from a pool the kernel keeps, so a row allocates nothing
+// once the pool holds one per goroutine; the cost per row with a gap is
+// that of Transform, O(Rows·P + Rows·log K).
+func (s KNearest) RowKernel(p KNearestParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "impute.knearest row"
+	if err := p.check(op); err != nil {
+		return nil, err
+	}
+	slots, err := numericPositions(op, l, p.Columns)
+	if err != nil {
+		return nil, err
+	}
+	type scratch struct {
+		sc *neighbourScratch
+		q  []float64
+	}
+	pool := sync.Pool{New: func() any {
+		return &scratch{sc: newNeighbourScratch(p), q: make([]float64, len(p.Columns))}
+	}}
+	fn := func(regs []tabprep.Cell) error {
+		gaps := false
+		for _, k := range slots {
+			gaps = gaps || math.IsNaN(regs[k].Num)
+		}
+		if !gaps {
+			return nil
+		}
+		w := pool.Get().(*scratch)
+		defer pool.Put(w)
+		for j, k := range slots {
+			w.q[j] = regs[k].Num
+		}
+		w.sc.distances(p, w.q)
+		for j, k := range slots {
+			if w.q[j] != w.q[j] {
+				regs[k].Num = w.sc.fill(p, j)
+			}
+		}
+		return nil
+	}
+	return fn, nil
 }

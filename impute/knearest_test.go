@@ -1,14 +1,18 @@
 package impute_test
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sort"
+	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/require"
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/internal/steptest"
+	"github.com/tabprep/tabprep/pipeline"
 )
 
 func TestKNearestByHand(t *testing.T) {
@@ -149,4 +153,62 @@ func TestKNearestErrors(t *testing.T) {
 			require.EqualError(t, err, tc.msg)
 		})
 	}
+}
+
+func TestKNearestRowKernel(t *testing.T) {
+	rng := rand.New(rand.NewPCG(65, 66))
+	train := vetFrame(rng, 120, 0.2)
+	// Gaps in two of three columns of a row are common at this share, and
+	// all three (no donor: the train mean) occur too.
+	fresh := vetFrame(rng, 60, 0.5)
+	for _, s := range []impute.KNearest{
+		{K: 1},
+		{K: 3, Weights: impute.WeightDistance},
+		{K: 7, Columns: tabprep.Names("pet_age", "distance_km")},
+	} {
+		p, err := s.Fit(train)
+		require.NoError(t, err)
+		checkRowKernel(t, s.RowKernel, p, fresh, s.Transform)
+		steptest.RowsMatch(t, train, fresh, pipeline.Use(s), pipeline.Use(impute.MostFrequent{}))
+	}
+	// Many goroutines share one plan, so one kernel and its pool, each
+	// with its own output row.
+	s := impute.KNearest{K: 4}
+	fitted, plan := steptest.RowsMatch(t, train, fresh, pipeline.Use(s))
+	p := fitted.Step(0).Params().(impute.KNearestParams)
+	batch, err := fitted.Transform(fresh)
+	require.NoError(t, err)
+	errs := make([]error, 4)
+	var wg sync.WaitGroup
+	for g := range errs {
+		wg.Go(func() {
+			dst := make([]tabprep.Cell, plan.OutputWidth())
+			for range 3 {
+				for i := range fresh.NumRows() {
+					if err := plan.Apply(dst, steptest.Row(fresh, i)); err != nil {
+						errs[g] = err
+						return
+					}
+					for k := range dst {
+						want := batch.Col(k)
+						if want.Kind() == tabprep.Numeric && math.Float64bits(want.Value(i)) != math.Float64bits(dst[k].Num) {
+							errs[g] = fmt.Errorf("goroutine %d row %d column %s: batch %v, plan %v", g, i, want.Name(), want.Value(i), dst[k].Num)
+							return
+						}
+					}
+				}
+			}
+		})
+	}
+	wg.Wait()
+	for _, err := range errs {
+		require.NoError(t, err)
+	}
+
+	bad := p
+	bad.Reference = bad.Reference[:1]
+	_, err = s.RowKernel(bad, tabprep.NewRowLayout(fresh.Schema()))
+	require.ErrorIs(t, err, tabprep.ErrValue)
+	_, err = s.RowKernel(p, tabprep.NewRowLayout(tabprep.Schema{}))
+	require.ErrorIs(t, err, tabprep.ErrSchema)
 }

@@ -7,6 +7,7 @@ import (
 	"github.com/stretchr/testify/require"
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/pipeline"
 )
 
 func TestRowOrderFills(t *testing.T) {
@@ -97,5 +98,31 @@ func TestRowOrderContracts(t *testing.T) {
 		requireNoGaps(t, checkContract(t, impute.CarryForward{}, train, fresh, false), numeric...)
 		requireNoGaps(t, checkContract(t, impute.CarryBackward{}, train, fresh, false), numeric...)
 		requireNoGaps(t, checkContract(t, impute.Interpolate{}, train, fresh, false), numeric...)
+	}
+}
+
+// TestCompileRefusesWholeFrameSteps checks that a step whose output for a
+// row depends on other rows of the frame has no row kernel, and that
+// compiling a pipeline with it fails with an error naming the step.
+func TestCompileRefusesWholeFrameSteps(t *testing.T) {
+	rng := rand.New(rand.NewPCG(67, 68))
+	train := vetFrame(rng, 40, 0.2)
+	cases := []struct {
+		kind  string
+		stage pipeline.Stage
+	}{
+		{"impute.carryforward", pipeline.Use(impute.CarryForward{})},
+		{"impute.carrybackward", pipeline.Use(impute.CarryBackward{})},
+		{"impute.interpolate", pipeline.Use(impute.Interpolate{})},
+		{"impute.droprows", pipeline.Use(impute.DropRows{})},
+	}
+	for _, tc := range cases {
+		t.Run(tc.kind, func(t *testing.T) {
+			fitted, err := pipeline.New(pipeline.Use(impute.Mean{}), tc.stage).Fit(train)
+			require.NoError(t, err)
+			_, err = fitted.Compile()
+			require.Error(t, err)
+			require.ErrorContains(t, err, "step 1 ("+tc.kind+") cannot act on one row")
+		})
 	}
 }

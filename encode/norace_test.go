@@ -1,0 +1,5 @@
+//go:build !race
+
+package encode_test
+
+const raceEnabled = false
