@@ -49,8 +49,8 @@ type ParseNumberParams struct {
 
 func init() { state.Register(ParseNumber{}) }
 
-// Kind returns "encode.parse_number".
-func (ParseNumber) Kind() string { return "encode.parse_number" }
+// Kind returns "encode.parsenumber".
+func (ParseNumber) Kind() string { return "encode.parsenumber" }
 
 // Outputs returns the names of the columns the step writes: the source
 // names, replaced in place.
@@ -199,7 +199,7 @@ func (f numberFormat) parse(s string) (float64, bool) {
 // Fit parses the train cells of each selected column and reports the bad
 // ones.
 func (s ParseNumber) Fit(train *tabprep.Frame) (ParseNumberParams, error) {
-	const op = "encode.parse_number fit"
+	const op = "encode.parsenumber fit"
 	names, err := resolve[struct{}](op, train, s.Columns, tabprep.Categorical, "", nil)
 	if err != nil {
 		return ParseNumberParams{}, err
@@ -240,7 +240,7 @@ func (f numberFormat) parseInto(level string, dst []float64) bool {
 // Transform replaces each fitted column by its parsed values. It does not
 // modify data.
 func (s ParseNumber) Transform(p ParseNumberParams, data *tabprep.Frame) (*tabprep.Frame, error) {
-	const op = "encode.parse_number transform"
+	const op = "encode.parsenumber transform"
 	f, err := s.format(op)
 	if err != nil {
 		return nil, err
@@ -263,7 +263,7 @@ func (s ParseNumber) Transform(p ParseNumberParams, data *tabprep.Frame) (*tabpr
 // rewritten number of over 32 bytes allocates its copy.
 // A bad cell is missing, or under BadError an error wrapping [ErrBadCell].
 func (s ParseNumber) RowKernel(p ParseNumberParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.parse_number row"
+	const op = "encode.parsenumber row"
 	f, err := s.format(op)
 	if err != nil {
 		return nil, err

@@ -106,7 +106,7 @@ func TestParseNumberStep(t *testing.T) {
 	strict.Bad = encode.BadError
 	_, err = strict.Fit(train)
 	require.ErrorIs(t, err, encode.ErrBadCell)
-	require.EqualError(t, err, `encode.parse_number fit: column "distance_km": row 3: "weit" is not a number in the chosen format; fix the cell, adjust the format options, or set Bad to "missing"`)
+	require.EqualError(t, err, `encode.parsenumber fit: column "distance_km": row 3: "weit" is not a number in the chosen format; fix the cell, adjust the format options, or set Bad to "missing"`)
 	_, err = strict.Transform(p, data)
 	require.ErrorContains(t, err, `row 2: "x" is not a number`)
 }

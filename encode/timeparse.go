@@ -89,8 +89,8 @@ type ParseTimeParams struct {
 
 func init() { state.Register(ParseTime{}) }
 
-// Kind returns "encode.parse_time".
-func (ParseTime) Kind() string { return "encode.parse_time" }
+// Kind returns "encode.parsetime".
+func (ParseTime) Kind() string { return "encode.parsetime" }
 
 func (p ParseTimeParams) names(source string) []string {
 	if len(p.Parts) == 0 {
@@ -173,7 +173,7 @@ func (s ParseTime) run(op string, p *ParseTimeParams, loc *time.Location, c *tab
 // Fit parses the train cells of each selected column and reports the bad
 // ones.
 func (s ParseTime) Fit(train *tabprep.Frame) (ParseTimeParams, error) {
-	const op = "encode.parse_time fit"
+	const op = "encode.parsetime fit"
 	names, err := resolve[struct{}](op, train, s.Columns, tabprep.Categorical, "", nil)
 	if err != nil {
 		return ParseTimeParams{}, err
@@ -197,7 +197,7 @@ func (s ParseTime) Fit(train *tabprep.Frame) (ParseTimeParams, error) {
 // Transform writes the numbers of each fitted column. It does not modify
 // data.
 func (s ParseTime) Transform(p ParseTimeParams, data *tabprep.Frame) (*tabprep.Frame, error) {
-	const op = "encode.parse_time transform"
+	const op = "encode.parsetime transform"
 	loc, err := s.setup(op)
 	if err != nil {
 		return nil, err
@@ -218,7 +218,7 @@ func (s ParseTime) Transform(p ParseTimeParams, data *tabprep.Frame) (*tabprep.F
 // that does not parse (its error value). A bad cell is missing, or under
 // BadError an error wrapping [ErrBadCell].
 func (s ParseTime) RowKernel(p ParseTimeParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.parse_time row"
+	const op = "encode.parsetime row"
 	loc, err := s.setup(op)
 	if err != nil {
 		return nil, err

@@ -3,6 +3,7 @@ package state_test
 import (
 	"bytes"
 	"flag"
+	"math"
 	"os"
 	"path/filepath"
 	"testing"
@@ -69,6 +70,32 @@ func TestGoldenV1(t *testing.T) {
 	want, err := tabprep.ReadCSV(bytes.NewReader(wantBytes), nil)
 	require.NoError(t, err)
 	require.True(t, tabprep.Equal(want, got), "the golden state must give the golden output, bit for bit")
+
+	// The compiled plan agrees with the batch transform on the golden rows.
+	plan, err := fitted.Compile()
+	require.NoError(t, err)
+	dst := make([]float64, plan.OutputWidth())
+	run := plan.Runner()
+	for i := 0; i < in.NumRows(); i++ {
+		require.NoError(t, run.ApplyFloats(dst, rowCells(in, fitted.Input(), i)))
+		for j, v := range dst {
+			w := got.Col(j).Value(i)
+			require.True(t, math.Float64bits(v) == math.Float64bits(w) || (v != v && w != w), "row %d column %s", i, got.Col(j).Name())
+		}
+	}
+}
+
+func rowCells(f *tabprep.Frame, s tabprep.Schema, i int) []tabprep.Cell {
+	out := make([]tabprep.Cell, len(s.Columns))
+	for j, c := range s.Columns {
+		col, _ := f.Column(c.Name)
+		if c.Kind == tabprep.Numeric {
+			out[j].Num = col.Value(i)
+		} else {
+			out[j].Str = col.Level(i)
+		}
+	}
+	return out
 }
 
 func writeGoldenOnce(t *testing.T, statePath, inPath, outPath string) {
