@@ -20,6 +20,15 @@
 // errors.Is(err, [ErrHoldout]). Roles survive row selection, concatenation,
 // every transform and a CSV round trip.
 //
+// # CSV
+//
+// [ReadCSV] and [WriteCSV] read and write CSV with a header, kind inference
+// per column (numeric when every non-missing cell parses), missing tokens
+// and a role column, so a written frame reads back equal, roles included.
+// [CSVReader] reads a file larger than memory in frames of a fixed number of
+// rows; its column kinds come from the first chunk unless
+// [CSVOptions.Kinds] fixes them.
+//
 // # Steps
 //
 // A step is a value that holds what the user chose (columns, options). Its

@@ -169,3 +169,34 @@ func TestParseTimeRowKernel(t *testing.T) {
 	require.ErrorIs(t, err, encode.ErrBadCell)
 	require.ErrorContains(t, err, `"soon"`)
 }
+
+// FuzzParseTime checks the time parser on any cell: the row kernel and the
+// batch transform agree, bit for bit, and a cell either parses or is
+// reported (as missing under Bad "missing").
+func FuzzParseTime(f *testing.F) {
+	for _, s := range []string{"2025-03-12 09:30", "2025-13-01 00:00", "", "2024-02-29 23:59", "x", "2025-03-12 9:30"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, cell string) {
+		if len(cell) > 64 || cell == "" {
+			return
+		}
+		s := encode.ParseTime{Columns: tabprep.Names("at"), Layout: "2006-01-02 15:04",
+			Parts: []encode.TimePart{encode.PartUnix, encode.PartWeekday, encode.PartHour}, Bad: encode.BadMissing}
+		train := tabprep.MustFrame(tabprep.NewCategorical("at", []string{"2025-03-12 09:30", "2025-03-13 17:05"}))
+		p, err := s.Fit(train)
+		require.NoError(t, err)
+		data := tabprep.MustFrame(tabprep.NewCategorical("at", []string{cell}))
+		batch, err := s.Transform(p, data)
+		require.NoError(t, err)
+		run, out, err := steptest.Compile(s.RowKernel, p, train.Schema())
+		require.NoError(t, err)
+		dst := make([]tabprep.Cell, len(out.Columns))
+		require.NoError(t, run(dst, []tabprep.Cell{{Str: cell}}))
+		for j := range dst {
+			want := batch.Col(j).Value(0)
+			require.True(t, math.Float64bits(want) == math.Float64bits(dst[j].Num) || math.IsNaN(want) && math.IsNaN(dst[j].Num),
+				"cell %q column %s: batch %v, kernel %v", cell, out.Columns[j].Name, want, dst[j].Num)
+		}
+	})
+}

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -194,4 +195,29 @@ func TestChecksumCoversSteps(t *testing.T) {
 	d.Steps[0].Params = json.RawMessage(`{"by":0}`)
 	_, err := state.Read(bytes.NewReader(encodeDoc(t, &d)), state.ReadOptions{})
 	require.True(t, errors.Is(err, state.ErrChecksum))
+}
+
+// FuzzRead feeds the document reader any bytes: it must return a document
+// or an error, never panic, and a document it accepts must write back to
+// one it reads the same.
+func FuzzRead(f *testing.F) {
+	golden, err := os.ReadFile("testdata/v1/vet-no-show.state.json")
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(golden)
+	f.Add([]byte(`{"format":"tabprep.state","version":1}`))
+	f.Add([]byte(`{"format":"tabprep.state","version":2}`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		doc, err := state.Read(bytes.NewReader(b), state.ReadOptions{MaxBytes: 1 << 20})
+		if err != nil {
+			return
+		}
+		_, _ = doc.FittedSteps()
+		var buf bytes.Buffer
+		require.NoError(t, state.Write(&buf, doc))
+		again, err := state.Read(&buf, state.ReadOptions{})
+		require.NoError(t, err)
+		require.Equal(t, doc.Checksum, again.Checksum)
+	})
 }
