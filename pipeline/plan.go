@@ -24,8 +24,7 @@ type Plan struct {
 	funcs      []tabprep.RowFunc
 	outSlots   []int          // slot of each output column
 	slots      int            // register file size
-	cats       []int          // positions of categorical input columns
-	entry      []levelTable   // per input column; empty for numeric ones
+	entry      []entryCode    // one per categorical input column
 	fields     map[string]int // input column name → position, for the helpers
 	numericOut bool
 	scratch    sync.Pool // *rowScratch
@@ -84,6 +83,12 @@ func (t *levelTable) code(s string) int32 {
 	}
 }
 
+// entryCode codes one categorical input column as a row enters the plan.
+type entryCode struct {
+	pos   int
+	table levelTable
+}
+
 type rowScratch struct {
 	regs, src []tabprep.Cell
 	cols      []*tabprep.Column
@@ -93,12 +98,11 @@ type rowScratch struct {
 // step that needs other rows to act on one (row-order imputation, row
 // dropping) is refused with an error that names it.
 func (f *Fitted) Compile() (*Plan, error) {
-	p := &Plan{in: cloneSchema(f.input), entry: make([]levelTable, len(f.input.Columns)), fields: map[string]int{}}
+	p := &Plan{in: cloneSchema(f.input), fields: map[string]int{}}
 	for i, c := range f.input.Columns {
 		p.fields[c.Name] = i
 		if c.Kind == tabprep.Categorical {
-			p.cats = append(p.cats, i)
-			p.entry[i] = newLevelTable(c.Levels)
+			p.entry = append(p.entry, entryCode{pos: i, table: newLevelTable(c.Levels)})
 		}
 	}
 	layout := tabprep.NewRowLayout(p.in)
@@ -170,8 +174,9 @@ func (p *Plan) gather(dst, regs []tabprep.Cell) {
 // run loads src into regs and runs every step's row function.
 func (p *Plan) run(regs, src []tabprep.Cell) error {
 	copy(regs, src)
-	for _, i := range p.cats {
-		regs[i].Code = p.entry[i].code(regs[i].Str)
+	for k := range p.entry {
+		e := &p.entry[k]
+		regs[e.pos].Code = e.table.code(regs[e.pos].Str)
 	}
 	for _, fn := range p.funcs {
 		if err := fn(regs); err != nil {
