@@ -76,8 +76,8 @@ func ExampleMostFrequent() {
 	p, _ := impute.MostFrequent{}.Fit(train)
 	printFill(p) // both columns tie: the first level in byte order, the smallest number
 	// Output:
-	// species: most_frequent by step = "cat"
-	// prior_no_shows: most_frequent by step = 0
+	// species: mode by step = "cat"
+	// prior_no_shows: mode by step = 0
 }
 
 func ExampleConstant() {
@@ -101,7 +101,7 @@ func ExampleFill() {
 	)
 	step := impute.Fill{
 		Numeric:     impute.Rule{Stat: impute.StatMedian},
-		Categorical: impute.Rule{Stat: impute.StatMostFrequent},
+		Categorical: impute.Rule{Stat: impute.StatMode},
 		Patterns:    []impute.PatternRule{{Pattern: "distance_*", Rule: impute.Rule{Stat: impute.StatMax}}},
 		Columns:     []impute.ColumnRule{{Name: "reminder", Rule: impute.ConstantLevel("none")}},
 	}
@@ -112,7 +112,7 @@ func ExampleFill() {
 	}
 	printFill(p)
 	// Output:
-	// species: most_frequent by kind = "dog"
+	// species: mode by kind = "dog"
 	// pet_age: median by kind = 3
 	// distance_km: max by pattern distance_* = 9
 	// distance_home: max by pattern distance_* = 12

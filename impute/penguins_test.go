@@ -55,7 +55,7 @@ func TestPenguinGaps(t *testing.T) {
 		require.Equal(t, n, column(t, f, name).MissingCount(), name)
 	}
 
-	fill := impute.Fill{Numeric: impute.Rule{Stat: impute.StatMedian}, Categorical: impute.Rule{Stat: impute.StatMostFrequent}}
+	fill := impute.Fill{Numeric: impute.Rule{Stat: impute.StatMedian}, Categorical: impute.Rule{Stat: impute.StatMode}}
 	out := checkContract(t, fill, f, f, false)
 	requireNoGaps(t, out, out.Names()...)
 

@@ -28,9 +28,9 @@ const (
 	StatMin Stat = "min"
 	// StatMax is the largest present value (numeric only).
 	StatMax Stat = "max"
-	// StatMostFrequent is the most frequent value or level; ties go to the
+	// StatMode is the mode: the most frequent value or level; ties go to the
 	// smallest number, or the level first in byte order.
-	StatMostFrequent Stat = "most_frequent"
+	StatMode Stat = "mode"
 	// StatConstant is Rule.Number for numeric columns and Rule.Level for
 	// categorical ones.
 	StatConstant Stat = "constant"
@@ -96,13 +96,13 @@ func fitRule(op string, c *tabprep.Column, r Rule, from string) (ColumnFill, err
 		return constantFill(op, c, r, out)
 	case StatMean, StatMedian, StatQuantile, StatMin, StatMax:
 		if c.Kind() != tabprep.Numeric {
-			return out, tabprep.Errorf(op, tabprep.ErrKind, name, "%s needs a numeric column, this one is categorical; use most_frequent or constant", r.Stat)
+			return out, tabprep.Errorf(op, tabprep.ErrKind, name, "%s needs a numeric column, this one is categorical; use mode or constant", r.Stat)
 		}
-	case StatMostFrequent:
+	case StatMode:
 	case "":
 		return out, tabprep.Errorf(op, tabprep.ErrOption, name, "rule has no stat; set Stat (e.g. %q)", StatMedian)
 	default:
-		return out, tabprep.Errorf(op, tabprep.ErrOption, name, "unknown stat %q; use mean, median, quantile, min, max, most_frequent, constant or keep", r.Stat)
+		return out, tabprep.Errorf(op, tabprep.ErrOption, name, "unknown stat %q; use mean, median, quantile, min, max, mode, constant or keep", r.Stat)
 	}
 	if out.Gaps == c.Len() {
 		return out, tabprep.Errorf(op, tabprep.ErrAllMissing, name, "no value in the %d train rows to compute the %s from; give this column a constant rule or drop it (impute.DropSparse)", c.Len(), r.Stat)

@@ -111,7 +111,7 @@ func (MostFrequent) Kind() string { return "impute.mostfrequent" }
 
 // Fit learns the most frequent value or level of each chosen column.
 func (s MostFrequent) Fit(train *tabprep.Frame) (FillParams, error) {
-	return fitAnyStat(s.Kind(), train, s.Columns, Rule{Stat: StatMostFrequent})
+	return fitAnyStat(s.Kind(), train, s.Columns, Rule{Stat: StatMode})
 }
 
 // Transform fills the gaps of the fitted columns of data with p.

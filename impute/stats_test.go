@@ -129,7 +129,7 @@ func TestStatisticValues(t *testing.T) {
 		require.NoError(t, err)
 		return p
 	}
-	p := fit(impute.Fill{Numeric: impute.Rule{Stat: impute.StatMostFrequent}, Categorical: impute.Rule{Stat: impute.StatMostFrequent}})
+	p := fit(impute.Fill{Numeric: impute.Rule{Stat: impute.StatMode}, Categorical: impute.Rule{Stat: impute.StatMode}})
 	require.Equal(t, 1.0, float64(p.Columns[0].Number)) // 1 and 3 tie: smallest wins
 	require.Equal(t, "cat", p.Columns[1].Level)         // cat and dog tie: byte order
 	require.Equal(t, "north", p.Columns[2].Level)       // a clear winner
@@ -167,7 +167,7 @@ func TestFillPrecedence(t *testing.T) {
 		Columns: []impute.ColumnRule{
 			{Name: "distance_home", Rule: impute.Rule{Stat: impute.StatMin}},
 			{Name: "days_ahead", Rule: impute.Rule{Stat: impute.StatKeep}},
-			{Name: "species", Rule: impute.Rule{Stat: impute.StatMostFrequent}},
+			{Name: "species", Rule: impute.Rule{Stat: impute.StatMode}},
 		},
 	}
 	p, err := rules.Fit(train)
@@ -187,7 +187,7 @@ func TestFillPrecedence(t *testing.T) {
 		{"distance_km", "pattern distance_*", impute.StatMax, 4, ""},
 		{"distance_home", "name", impute.StatMin, 10, ""},
 		{"days_ahead", "name", impute.StatKeep, 0, ""},
-		{"species", "name", impute.StatMostFrequent, 0, "dog"},
+		{"species", "name", impute.StatMode, 0, "dog"},
 		{"visit_type", "kind", impute.StatConstant, 0, "unknown"},
 	}, got)
 	out, err := rules.Transform(p, train)
@@ -213,9 +213,9 @@ func TestFillErrors(t *testing.T) {
 		{"unknown column", impute.Fill{Columns: []impute.ColumnRule{{Name: "weight", Rule: impute.Rule{Stat: impute.StatMean}}}},
 			tabprep.ErrNoColumn, `impute.fill fit: column "weight": has a rule but is not in the train frame; remove the rule or fix the name`},
 		{"mean of categorical", impute.Fill{Columns: []impute.ColumnRule{{Name: "species", Rule: impute.Rule{Stat: impute.StatMean}}}},
-			tabprep.ErrKind, `impute.fill fit: column "species": mean needs a numeric column, this one is categorical; use most_frequent or constant`},
+			tabprep.ErrKind, `impute.fill fit: column "species": mean needs a numeric column, this one is categorical; use mode or constant`},
 		{"median of categorical by kind", impute.Fill{Categorical: impute.Rule{Stat: impute.StatMedian}},
-			tabprep.ErrKind, `impute.fill fit: column "species": median needs a numeric column, this one is categorical; use most_frequent or constant`},
+			tabprep.ErrKind, `impute.fill fit: column "species": median needs a numeric column, this one is categorical; use mode or constant`},
 		{"number for categorical", impute.Fill{Categorical: impute.ConstantNumber(0)},
 			tabprep.ErrKind, `impute.fill fit: column "species": constant number 0 given for a categorical column; give Level (impute.ConstantLevel)`},
 		{"level for numeric", impute.Fill{Columns: []impute.ColumnRule{{Name: "pet_age", Rule: impute.ConstantLevel("old")}}},
@@ -231,7 +231,7 @@ func TestFillErrors(t *testing.T) {
 		{"bad method", impute.Fill{Numeric: impute.Quantile(0.5, 5)},
 			tabprep.ErrOption, `impute.fill fit: column "pet_age": quantile method 5; use 7 (default) or 6`},
 		{"unknown stat", impute.Fill{Numeric: impute.Rule{Stat: "average"}},
-			tabprep.ErrOption, `impute.fill fit: column "pet_age": unknown stat "average"; use mean, median, quantile, min, max, most_frequent, constant or keep`},
+			tabprep.ErrOption, `impute.fill fit: column "pet_age": unknown stat "average"; use mean, median, quantile, min, max, mode, constant or keep`},
 		{"bad pattern", impute.Fill{Patterns: []impute.PatternRule{{Pattern: "[", Rule: impute.Rule{Stat: impute.StatMin}}}},
 			tabprep.ErrOption, `impute.fill fit: bad column pattern "[": syntax error in pattern`},
 		{"name twice", impute.Fill{Columns: []impute.ColumnRule{{Name: "pet_age", Rule: impute.Rule{Stat: impute.StatMin}}, {Name: "pet_age", Rule: impute.Rule{Stat: impute.StatMax}}}},

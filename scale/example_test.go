@@ -76,7 +76,7 @@ func ExampleZScore_Inverse() {
 }
 
 func ExampleMinMax() {
-	s := scale.MinMax{Columns: tabprep.Names("days_ahead"), Low: -1, High: 1, Clip: true}
+	s := scale.MinMax{Columns: tabprep.Names("days_ahead"), Low: -1, High: 1, Clamp: true}
 	p, _ := s.Fit(visits())
 	later := tabprep.MustFrame(tabprep.NewNumeric("days_ahead", []float64{1, 15.5, 60}))
 	out, _ := s.Transform(p, later)
@@ -149,7 +149,7 @@ func ExampleLog1p() {
 }
 
 func ExampleBoxCox() {
-	s := scale.BoxCox{Columns: tabprep.Names("radiation"), Standardize: true}
+	s := scale.BoxCox{Columns: tabprep.Names("radiation"), ZScore: true}
 	p, _ := s.Fit(tabprep.MustFrame(tabprep.NewNumeric("radiation", microwave)))
 	fmt.Printf("lambda %.3f\n", p.Lambda[0])
 	out, _ := s.Transform(p, tabprep.MustFrame(tabprep.NewNumeric("radiation", []float64{0.01, 0.1, 0.4})))

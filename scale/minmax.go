@@ -16,11 +16,11 @@ func init() { state.Register(MinMax{}) }
 //
 // Low and High both zero (the zero value) mean the target [0, 1]; otherwise
 // Low must be below High. New values outside the train range map outside
-// the target unless Clip is set, which clips them to [Low, High].
+// the target unless Clamp is set, which clamps them to [Low, High].
 //
 // A column whose train values are all equal has no range: it is shifted,
 // not scaled, so its train value maps to the midpoint (Low + High)/2 and a
-// new value x to (x − min) + (Low + High)/2 (then clipped if Clip is set);
+// new value x to (x − min) + (Low + High)/2 (then clamped if Clamp is set);
 // never NaN or an infinity.
 //
 // The inverse undoes the map exactly up to rounding, except that a value
@@ -31,8 +31,8 @@ type MinMax struct {
 	// Low and High are the target range; both zero mean [0, 1].
 	Low  state.Float `json:"low,omitempty"`
 	High state.Float `json:"high,omitempty"`
-	// Clip clips transformed values to [Low, High].
-	Clip bool `json:"clip,omitempty"`
+	// Clamp clamps transformed values to [Low, High].
+	Clamp bool `json:"clamp,omitempty"`
 }
 
 // MinMaxParams is what [MinMax] learns: the train range of each column, and
@@ -43,7 +43,7 @@ type MinMaxParams struct {
 	Max     state.Floats `json:"max"`
 	Low     state.Float  `json:"low"`
 	High    state.Float  `json:"high"`
-	Clip    bool         `json:"clip,omitempty"`
+	Clamp   bool         `json:"clamp,omitempty"`
 }
 
 // Kind returns "scale.minmax".
@@ -73,7 +73,7 @@ func (s MinMax) Fit(train *tabprep.Frame) (MinMaxParams, error) {
 		return MinMaxParams{}, err
 	}
 	p := MinMaxParams{Columns: names, Min: make(state.Floats, len(names)), Max: make(state.Floats, len(names)),
-		Low: state.Float(a), High: state.Float(b), Clip: s.Clip}
+		Low: state.Float(a), High: state.Float(b), Clamp: s.Clamp}
 	for j, c := range cols {
 		vals := present(c.Float64s())
 		p.Min[j], p.Max[j] = slices.Min(vals), slices.Max(vals)
@@ -93,7 +93,7 @@ func (p MinMaxParams) mapper(op string, inverse bool) (*mapper, error) {
 	for j := range maps {
 		// Dividing keeps the train minimum and maximum on the ends of the
 		// target [0, 1] exactly.
-		m := affine{center: p.Min[j], scale: (p.Max[j] - p.Min[j]) / (b - a), offset: a, clip: p.Clip, lo: a, hi: b, divide: true}
+		m := affine{center: p.Min[j], scale: (p.Max[j] - p.Min[j]) / (b - a), offset: a, clip: p.Clamp, lo: a, hi: b, divide: true}
 		if p.Max[j] == p.Min[j] {
 			m.scale, m.offset = 1, a+(b-a)/2
 		}

@@ -35,7 +35,7 @@ const (
 //
 // with σ̂² the variance of ψ(λ, x) with denominator n, over [LambdaMin,
 // LambdaMax] (a grid, then golden-section search; see the package tests
-// for the NIST e-Handbook check). With Standardize set, the transformed
+// for the NIST e-Handbook check). With ZScore set, the transformed
 // values are then z-scored with their train mean and sample standard
 // deviation, as [ZScore] does.
 //
@@ -47,8 +47,8 @@ const (
 type BoxCox struct {
 	// Columns chooses the numeric columns; the zero value chooses all.
 	Columns tabprep.Selection `json:"columns"`
-	// Standardize z-scores the transformed values.
-	Standardize bool `json:"standardize,omitempty"`
+	// ZScore z-scores the transformed values.
+	ZScore bool `json:"zscore,omitempty"`
 	// OutOfDomain says what to do with a value ≤ 0.
 	OutOfDomain DomainRule `json:"out_of_domain,omitempty"`
 }
@@ -69,19 +69,19 @@ type BoxCox struct {
 type YeoJohnson struct {
 	// Columns chooses the numeric columns; the zero value chooses all.
 	Columns tabprep.Selection `json:"columns"`
-	// Standardize z-scores the transformed values.
-	Standardize bool `json:"standardize,omitempty"`
+	// ZScore z-scores the transformed values.
+	ZScore bool `json:"zscore,omitempty"`
 	// OutOfDomain says what to do with a value whose transform overflows.
 	OutOfDomain DomainRule `json:"out_of_domain,omitempty"`
 }
 
 // PowerParams is what [BoxCox] and [YeoJohnson] learn: λ per column and,
-// with Standardize, the train mean and standard deviation of the
+// with ZScore, the train mean and standard deviation of the
 // transformed values.
 type PowerParams struct {
 	Columns     []string     `json:"columns"`
 	Lambda      state.Floats `json:"lambda"`
-	Standardize bool         `json:"standardize,omitempty"`
+	ZScore      bool         `json:"zscore,omitempty"`
 	Mean        state.Floats `json:"mean,omitempty"`
 	Std         state.Floats `json:"std,omitempty"`
 	OutOfDomain DomainRule   `json:"out_of_domain,omitempty"`
@@ -168,10 +168,10 @@ var yeoJohnsonFamily = powerFamily{
 	inverseDomain: "the Yeo-Johnson inverse needs 1 + λ·y > 0 for y ≥ 0 and 1 − (2−λ)·y > 0 for y < 0",
 }
 
-// Fit learns λ, and with Standardize the mean and standard deviation of
+// Fit learns λ, and with ZScore the mean and standard deviation of
 // the transformed values, for each chosen column of train.
 func (s BoxCox) Fit(train *tabprep.Frame) (PowerParams, error) {
-	return fitPower(s.Kind(), boxCoxFamily, s.Columns, s.Standardize, s.OutOfDomain, train)
+	return fitPower(s.Kind(), boxCoxFamily, s.Columns, s.ZScore, s.OutOfDomain, train)
 }
 
 // Transform returns data with each fitted column transformed.
@@ -189,10 +189,10 @@ func (s BoxCox) RowKernel(p PowerParams, l *tabprep.RowLayout) (tabprep.RowFunc,
 	return rowKernel(s.Kind(), boxCoxOf(p), l)
 }
 
-// Fit learns λ, and with Standardize the mean and standard deviation of
+// Fit learns λ, and with ZScore the mean and standard deviation of
 // the transformed values, for each chosen column of train.
 func (s YeoJohnson) Fit(train *tabprep.Frame) (PowerParams, error) {
-	return fitPower(s.Kind(), yeoJohnsonFamily, s.Columns, s.Standardize, s.OutOfDomain, train)
+	return fitPower(s.Kind(), yeoJohnsonFamily, s.Columns, s.ZScore, s.OutOfDomain, train)
 }
 
 // Transform returns data with each fitted column transformed.
@@ -223,7 +223,7 @@ func (p yeoJohnsonOf) mapper(op string, inverse bool) (*mapper, error) {
 	return PowerParams(p).mapperOf(yeoJohnsonFamily, op, inverse)
 }
 
-func fitPower(kind string, fam powerFamily, sel tabprep.Selection, standardize bool, rule DomainRule, train *tabprep.Frame) (PowerParams, error) {
+func fitPower(kind string, fam powerFamily, sel tabprep.Selection, zscore bool, rule DomainRule, train *tabprep.Frame) (PowerParams, error) {
 	op := opName(kind, "fit")
 	if err := rule.check(op); err != nil {
 		return PowerParams{}, err
@@ -233,8 +233,8 @@ func fitPower(kind string, fam powerFamily, sel tabprep.Selection, standardize b
 		return PowerParams{}, err
 	}
 	k := len(names)
-	p := PowerParams{Columns: names, Lambda: make(state.Floats, k), Standardize: standardize, OutOfDomain: rule}
-	if standardize {
+	p := PowerParams{Columns: names, Lambda: make(state.Floats, k), ZScore: zscore, OutOfDomain: rule}
+	if zscore {
 		p.Mean, p.Std = make(state.Floats, k), make(state.Floats, k)
 	}
 	for j, c := range cols {
@@ -255,7 +255,7 @@ func fitPower(kind string, fam powerFamily, sel tabprep.Selection, standardize b
 			return PowerParams{}, allMissing(op, names[j])
 		}
 		p.Lambda[j] = fitLambda(fam, x)
-		if standardize {
+		if zscore {
 			y := make([]float64, len(x))
 			for i, v := range x {
 				y[i] = fam.forward(p.Lambda[j], v)
@@ -302,7 +302,7 @@ func (p PowerParams) mapperOf(fam powerFamily, op string, inverse bool) (*mapper
 	if err := checkWidths(op, p.Columns, len(p.Lambda)); err != nil {
 		return nil, err
 	}
-	if p.Standardize {
+	if p.ZScore {
 		if err := checkWidths(op, p.Columns, len(p.Mean), len(p.Std)); err != nil {
 			return nil, err
 		}
@@ -318,7 +318,7 @@ func (p PowerParams) mapperOf(fam powerFamily, op string, inverse bool) (*mapper
 			return nil, tabprep.Errorf(op, tabprep.ErrOption, p.Columns[j], "lambda %v is not finite; refit the step", l)
 		}
 		z := affine{scale: 1}
-		if p.Standardize {
+		if p.ZScore {
 			z = affine{center: p.Mean[j], scale: divisor(p.Std[j])}
 		}
 		if inverse {

@@ -72,7 +72,7 @@ func TestMinMaxRangeAndClip(t *testing.T) {
 	p, err := s.Fit(train)
 	require.NoError(t, err)
 	require.Equal(t, []float64{-1, -0.6, 1, 3}, values(t)(s.Transform(p, col("days_ahead", 2, 4, 12, 22))))
-	s.Clip = true
+	s.Clamp = true
 	p, err = s.Fit(train)
 	require.NoError(t, err)
 	require.Equal(t, []float64{-1, 1, 1}, values(t)(s.Transform(p, col("days_ahead", -30, 12, 22))))
@@ -207,9 +207,9 @@ func TestPowerTransforms(t *testing.T) {
 	p.Lambda[0] = 2
 	require.Equal(t, []float64{-math.Log1p(2)}, values(t)(scale.YeoJohnson{}.Transform(p, col("x", -2))))
 
-	// Standardize: the transformed train values have mean 0 and std 1.
+	// ZScore: the transformed train values have mean 0 and std 1.
 	train := col("radiation", microwave...)
-	q, err := scale.BoxCox{Standardize: true}.Fit(train)
+	q, err := scale.BoxCox{ZScore: true}.Fit(train)
 	require.NoError(t, err)
 	z, err := scale.BoxCox{}.Transform(q, train)
 	require.NoError(t, err)

@@ -39,7 +39,7 @@ func goldenPipeline() *pipeline.Pipeline {
 		pipeline.Use(encode.ParseTime{Columns: tabprep.Names("booked_on"), Layout: time.DateOnly, Parts: []encode.TimePart{encode.PartWeekday, encode.PartMonth}}),
 		pipeline.Use(scale.Log1p{Columns: tabprep.Names("days_ahead")}),
 		pipeline.Use(scale.ZScore{Columns: tabprep.Names("days_ahead")}),
-		pipeline.Use(scale.YeoJohnson{Columns: tabprep.Names("pet_age"), Standardize: true}),
+		pipeline.Use(scale.YeoJohnson{Columns: tabprep.Names("pet_age"), ZScore: true}),
 		pipeline.Use(encode.Bin{Columns: tabprep.Names("distance_km"), Method: encode.BinQuantile, Bins: 4, Codes: true}),
 		pipeline.Use(scale.MinMax{Columns: tabprep.Names("prior_no_shows")}),
 	)
