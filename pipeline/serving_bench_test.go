@@ -157,16 +157,12 @@ func servingRows(b *testing.B) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
 	return plan, rows, k
 }
 
-// BenchmarkRowPlan runs the compiled plan one row per op, the way a
-// scoring loop does: with a Runner, its register file of its own.
-func BenchmarkRowPlan(b *testing.B) {
-	plan, rows, _ := servingRows(b)
-	run := plan.Runner()
-	dst := make([]float64, plan.OutputWidth())
+// benchRows calls score on the demo rows in turn, one row per op.
+func benchRows(b *testing.B, rows [][]tabprep.Cell, score func(row []tabprep.Cell) error) {
 	b.ReportAllocs()
 	i := 0
 	for b.Loop() {
-		if err := run.ApplyFloats(dst, rows[i]); err != nil {
+		if err := score(rows[i]); err != nil {
 			b.Fatal(err)
 		}
 		i++
@@ -174,6 +170,15 @@ func BenchmarkRowPlan(b *testing.B) {
 			i = 0
 		}
 	}
+}
+
+// BenchmarkRowPlan runs the compiled plan one row per op, the way a
+// scoring loop does: with a Runner, its register file of its own.
+func BenchmarkRowPlan(b *testing.B) {
+	plan, rows, _ := servingRows(b)
+	run := plan.Runner()
+	dst := make([]float64, plan.OutputWidth())
+	benchRows(b, rows, func(row []tabprep.Cell) error { return run.ApplyFloats(dst, row) })
 }
 
 // BenchmarkRowPlanPooled is BenchmarkRowPlan through Plan.ApplyFloats,
@@ -181,31 +186,14 @@ func BenchmarkRowPlan(b *testing.B) {
 func BenchmarkRowPlanPooled(b *testing.B) {
 	plan, rows, _ := servingRows(b)
 	dst := make([]float64, plan.OutputWidth())
-	b.ReportAllocs()
-	i := 0
-	for b.Loop() {
-		if err := plan.ApplyFloats(dst, rows[i]); err != nil {
-			b.Fatal(err)
-		}
-		i++
-		if i == len(rows) {
-			i = 0
-		}
-	}
+	benchRows(b, rows, func(row []tabprep.Cell) error { return plan.ApplyFloats(dst, row) })
 }
 
+// BenchmarkRowHandWritten runs handWritten on the same rows.
 func BenchmarkRowHandWritten(b *testing.B) {
 	_, rows, k := servingRows(b)
 	dst := make([]float64, 19)
-	b.ReportAllocs()
-	i := 0
-	for b.Loop() {
-		handWritten(dst, rows[i], &k)
-		i++
-		if i == len(rows) {
-			i = 0
-		}
-	}
+	benchRows(b, rows, func(row []tabprep.Cell) error { handWritten(dst, row, &k); return nil })
 }
 
 // BenchmarkPipelineFit fits mean imputation and z-score scaling on
