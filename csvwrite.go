@@ -79,8 +79,8 @@ func (w *CSVWriter) Write(f *Frame) error {
 		roles = append(roles, w.field(nil, Train.String(), false))
 		for _, p := range f.roles.parts {
 			r := Holdout(p)
-			if back, err := ParseRole(r.String()); err != nil || back != r || strings.Contains(p, "\r\n") {
-				return Errorf(csvWriteOp, ErrRole, w.cfg.roleColumn, "partition %q would not read back as itself; rename it without surrounding spaces or \"\\r\\n\"", p)
+			if back, err := ParseRole(r.String()); err != nil || back != r {
+				return Errorf(csvWriteOp, ErrRole, w.cfg.roleColumn, "partition %q would not read back as itself; rename it without surrounding spaces", p)
 			}
 			roles = append(roles, w.field(nil, r.String(), false))
 		}
@@ -140,9 +140,6 @@ func (w *CSVWriter) plan(f *Frame) error {
 		if c.name == w.cfg.roleColumn {
 			return Errorf(csvWriteOp, ErrName, c.name, "column has the role column's name, so it would be read back as roles; rename the column or set CSVOptions.RoleColumn to another name")
 		}
-		if strings.Contains(c.name, "\r\n") {
-			return Errorf(csvWriteOp, ErrName, c.name, "name holds \"\\r\\n\", which CSV readers turn into \"\\n\"; rename the column")
-		}
 	}
 	w.names, w.kinds = f.Names(), make([]Kind, f.NumCols())
 	for i, c := range f.cols {
@@ -188,6 +185,9 @@ func (w *CSVWriter) field(dst []byte, s string, alone bool) []byte {
 		return append(dst, s...)
 	}
 	dst = append(dst, '"')
+	if strings.Contains(s, "\r\n") {
+		s = crlf.Replace(s)
+	}
 	for {
 		i := strings.IndexByte(s, '"')
 		if i < 0 {
@@ -200,6 +200,12 @@ func (w *CSVWriter) field(dst []byte, s string, alone bool) []byte {
 	dst = append(dst, s...)
 	return append(dst, '"')
 }
+
+// crlf escapes "\r\n" inside a quoted field as "\r\r\n": encoding/csv,
+// which ReadCSV uses, turns a "\r\n" line ending into "\n", so that is what
+// reads back as "\r\n". (A reader that keeps line endings as they are would
+// see the extra "\r".)
+var crlf = strings.NewReplacer("\r\n", "\r\r\n")
 
 func (w *CSVWriter) needsQuotes(s string) bool {
 	if s == "" {
@@ -237,9 +243,6 @@ func (o *csvOut) prepare(w *CSVWriter, c *Column) error {
 		l := c.levels[k]
 		if w.cfg.isMissing(l) {
 			return Errorf(csvWriteOp, ErrValue, c.name, "level %q is a missing token, so it would read back as missing; rename the level or set CSVOptions.Missing to tokens no level uses", l).AtRow(i)
-		}
-		if strings.Contains(l, "\r\n") {
-			return Errorf(csvWriteOp, ErrValue, c.name, "level %q holds \"\\r\\n\", which CSV readers turn into \"\\n\"; replace it first", l).AtRow(i)
 		}
 		o.levels[k] = w.field(nil, l, w.alone)
 	}
