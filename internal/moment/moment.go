@@ -21,28 +21,7 @@ type Summary struct {
 // two-pass algorithm: the mean first, then M2 = Σd² − (Σd)²/n with
 // d = x − mean, whose second term cancels the rounding error of the mean
 // (Chan, Golub & LeVeque 1983, eq. 1.7).
-//
-// Long inputs are summarised block by block, each block small enough to
-// stay in cache for its second pass, and the blocks merged with [Merge]: so
-// the data is read from memory once, not twice.
 func Of(x []float64) Summary {
-	if len(x) > block {
-		var s Summary
-		for len(x) > 0 {
-			n := min(block, len(x))
-			s = Merge(s, twoPass(x[:n]))
-			x = x[n:]
-		}
-		return s
-	}
-	return twoPass(x)
-}
-
-// block is the number of values summarised in one piece: 256 KiB, which
-// fits a core's L2 cache (common practice, no source).
-const block = 1 << 15
-
-func twoPass(x []float64) Summary {
 	var sum float64
 	n := 0
 	for _, v := range x {
