@@ -34,8 +34,9 @@
 // A step is a value that holds what the user chose (columns, options). Its
 // Fit learns parameters P from train rows; its Transform applies P to any
 // rows and is a pure function of (P, data). Optional capabilities are extra
-// interfaces found by type assertion: [Inverter], [RowKernel], [Accumulating]
-// and [OutOfFold].
+// interfaces found by type assertion: [Inverter], [RowKernel] (for compiled
+// serving plans, against a [RowLayout]), [Accumulating] (chunked fits),
+// [OutOfFold] and [Supervised] (steps that learn from a target column).
 //
 // # Errors
 //
