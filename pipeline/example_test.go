@@ -2,12 +2,15 @@ package pipeline_test
 
 import (
 	"bytes"
+	"context"
 	"errors"
 	"fmt"
 	"log"
 	"math"
+	"strings"
 
 	"github.com/tabprep/tabprep"
+	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/impute"
 	"github.com/tabprep/tabprep/pipeline"
 	"github.com/tabprep/tabprep/scale"
@@ -60,4 +63,61 @@ func Example() {
 	// holdout  -0.995 -0.759
 	// holdout   1.204 -0.571
 	// holdout   0.262 -0.336
+}
+
+// A fitted pipeline compiles to a row plan for serving: one request row in,
+// the output vector out, into a buffer the caller owns.
+func ExampleFitted_Compile() {
+	train := tabprep.MustFrame(
+		tabprep.NewCategorical("species", []string{"dog", "cat", "dog", "rabbit"}),
+		tabprep.NewNumeric("pet_age", []float64{3, math.NaN(), 9, 2}),
+	)
+	fitted, err := pipeline.New(
+		pipeline.Use(impute.Mean{}),
+		pipeline.Use(encode.OneHot{}),
+	).Fit(train)
+	if err != nil {
+		log.Fatal(err)
+	}
+	plan, err := fitted.Compile()
+	if err != nil {
+		log.Fatal(err)
+	}
+	src := make([]tabprep.Cell, plan.InputWidth())
+	if err := plan.FromMap(src, map[string]any{"species": "cat", "pet_age": nil}); err != nil {
+		log.Fatal(err)
+	}
+	out := make([]float64, plan.OutputWidth())
+	if err := plan.ApplyFloats(out, src); err != nil {
+		log.Fatal(err)
+	}
+	fmt.Println(plan.Output().Names())
+	fmt.Println(out)
+	// Output:
+	// [pet_age species=cat species=dog species=rabbit]
+	// [4.666666666666667 1 0 0]
+}
+
+// Stream transforms CSV chunk by chunk, so the input can be larger than
+// memory.
+func ExampleFitted_Stream() {
+	train := tabprep.MustFrame(tabprep.NewNumeric("days_ahead", []float64{2, 4, 6}))
+	fitted, err := pipeline.New(pipeline.Use(scale.ZScore{})).Fit(train)
+	if err != nil {
+		log.Fatal(err)
+	}
+	in := strings.NewReader("days_ahead\n2\n8\n\"\"\n") // "" is a missing cell
+	var out bytes.Buffer
+	prog, err := fitted.Stream(context.Background(), in, &out, pipeline.StreamOptions{})
+	if err != nil {
+		log.Fatal(err)
+	}
+	fmt.Print(out.String())
+	fmt.Println(prog.Rows, "rows")
+	// Output:
+	// days_ahead
+	// -1
+	// 2
+	// ""
+	// 3 rows
 }
