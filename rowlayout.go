@@ -30,14 +30,7 @@ func NewRowLayout(s Schema) *RowLayout {
 }
 
 // Schema returns the columns of the layout, in order.
-func (l *RowLayout) Schema() Schema {
-	out := Schema{Columns: make([]Field, len(l.fields))}
-	for i, f := range l.fields {
-		out.Columns[i] = f
-		out.Columns[i].Levels = slices.Clone(f.Levels)
-	}
-	return out
-}
+func (l *RowLayout) Schema() Schema { return Schema{Columns: l.fields}.Clone() }
 
 // Len returns the number of columns.
 func (l *RowLayout) Len() int { return len(l.fields) }

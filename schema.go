@@ -18,6 +18,17 @@ type Field struct {
 	Levels []string `json:"levels,omitempty"`
 }
 
+// Clone returns a deep copy of s, so the copy's level lists can be handed
+// out without exposing s's.
+func (s Schema) Clone() Schema {
+	out := Schema{Columns: make([]Field, len(s.Columns))}
+	for i, c := range s.Columns {
+		out.Columns[i] = c
+		out.Columns[i].Levels = slices.Clone(c.Levels)
+	}
+	return out
+}
+
 // Names returns the column names in order.
 func (s Schema) Names() []string {
 	out := make([]string, len(s.Columns))

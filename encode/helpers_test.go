@@ -1,7 +1,6 @@
 package encode_test
 
 import (
-	"bytes"
 	"math"
 	"testing"
 
@@ -41,17 +40,7 @@ func clinicNew(t *testing.T) *tabprep.Frame {
 // for bit. It returns the in-memory result.
 func roundTrip(t *testing.T, stage pipeline.Stage, train, data *tabprep.Frame) *tabprep.Frame {
 	t.Helper()
-	fitted, err := pipeline.New(stage).Fit(train)
-	require.NoError(t, err)
-	want, err := fitted.Transform(data)
-	require.NoError(t, err)
-	var buf bytes.Buffer
-	require.NoError(t, fitted.Save(&buf))
-	loaded, err := pipeline.Load(&buf)
-	require.NoError(t, err)
-	got, err := loaded.Transform(data)
-	require.NoError(t, err)
-	require.True(t, tabprep.Equal(want, got), "Save/Load changed the transform")
+	want := steptest.RoundTrip(t, stage, train, data)
 	require.Equal(t, data.Roles(), want.Roles())
 	return want
 }

@@ -57,10 +57,10 @@ func (f *Fitted) Inverse(from int, data *tabprep.Frame) (*tabprep.Frame, error) 
 }
 
 // Input returns the schema of the train frame the pipeline was fitted on.
-func (f *Fitted) Input() tabprep.Schema { return cloneSchema(f.input) }
+func (f *Fitted) Input() tabprep.Schema { return f.input.Clone() }
 
 // Output returns the schema of the transformed train frame.
-func (f *Fitted) Output() tabprep.Schema { return cloneSchema(f.output) }
+func (f *Fitted) Output() tabprep.Schema { return f.output.Clone() }
 
 // OutputNames returns the output column names in order.
 func (f *Fitted) OutputNames() []string { return f.output.Names() }
@@ -74,15 +74,6 @@ func (f *Fitted) NumSteps() int { return len(f.steps) }
 // Step returns fitted step i: its kind, spec and learned parameters. It
 // panics if i is out of range.
 func (f *Fitted) Step(i int) state.Fitted { return f.steps[i] }
-
-func cloneSchema(s tabprep.Schema) tabprep.Schema {
-	out := tabprep.Schema{Columns: make([]tabprep.Field, len(s.Columns))}
-	for i, c := range s.Columns {
-		out.Columns[i] = c
-		out.Columns[i].Levels = append([]string(nil), c.Levels...)
-	}
-	return out
-}
 
 // Document returns the state document of f.
 func (f *Fitted) Document() (*state.Document, error) {

@@ -140,11 +140,7 @@ func TestEveryStepKeepsTheInvariants(t *testing.T) {
 			require.Equal(t, fitted.OutputNames(), out.Names())
 
 			// 3. Save → Load → Transform is bit-identical.
-			var buf bytes.Buffer
-			require.NoError(t, fitted.Save(&buf))
-			loaded, err := pipeline.Load(&buf)
-			require.NoError(t, err)
-			again, err := loaded.Transform(test)
+			again, err := steptest.Reloaded(t, fitted).Transform(test)
 			require.NoError(t, err)
 			require.True(t, tabprep.Equal(out, again), "Save/Load changed the output")
 
@@ -160,7 +156,7 @@ func TestEveryStepKeepsTheInvariants(t *testing.T) {
 		})
 	}
 	// Every registered built-in kind has a case here.
-	for _, k := range stateKinds() {
+	for _, k := range state.Kinds() {
 		if strings.HasPrefix(k, "pipetest.") {
 			continue
 		}
@@ -170,5 +166,3 @@ func TestEveryStepKeepsTheInvariants(t *testing.T) {
 	slices.Sort(noKernel)
 	require.Equal(t, []string{"impute.carrybackward", "impute.carryforward", "impute.droprows", "impute.interpolate"}, noKernel)
 }
-
-func stateKinds() []string { return state.Kinds() }

@@ -281,23 +281,33 @@ func TestConcurrentTransform(t *testing.T) {
 	data := randomFrame(rng, 64)
 	want, err := fp.Transform(data)
 	require.NoError(t, err)
+	inParallel(t, 64, func(int) error {
+		for range 20 {
+			got, err := fp.Transform(data)
+			if err != nil {
+				return err
+			}
+			if !tabprep.Equal(want, got) {
+				return errors.New("concurrent transform differs")
+			}
+			_ = fp.OutputNames()
+		}
+		return nil
+	})
+}
+
+// inParallel runs work(g) on n goroutines at once and requires every call
+// to return nil.
+func inParallel(t *testing.T, n int, work func(g int) error) {
+	t.Helper()
 	var wg sync.WaitGroup
-	errs := make(chan error, 64)
-	for g := 0; g < 64; g++ {
+	errs := make(chan error, n)
+	for g := 0; g < n; g++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for range 20 {
-				got, err := fp.Transform(data)
-				if err != nil {
-					errs <- err
-					return
-				}
-				if !tabprep.Equal(want, got) {
-					errs <- errors.New("concurrent transform differs")
-					return
-				}
-				_ = fp.OutputNames()
+			if err := work(g); err != nil {
+				errs <- err
 			}
 		}()
 	}

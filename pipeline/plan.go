@@ -98,7 +98,7 @@ type rowScratch struct {
 // step that needs other rows to act on one (row-order imputation, row
 // dropping) is refused with an error that names it.
 func (f *Fitted) Compile() (*Plan, error) {
-	p := &Plan{in: cloneSchema(f.input), fields: map[string]int{}}
+	p := &Plan{in: f.input.Clone(), fields: map[string]int{}}
 	for i, c := range f.input.Columns {
 		p.fields[c.Name] = i
 		if c.Kind == tabprep.Categorical {
@@ -131,10 +131,10 @@ func (f *Fitted) Compile() (*Plan, error) {
 }
 
 // Input returns the layout of the rows Apply reads.
-func (p *Plan) Input() tabprep.Schema { return cloneSchema(p.in) }
+func (p *Plan) Input() tabprep.Schema { return p.in.Clone() }
 
 // Output returns the layout of the rows Apply writes.
-func (p *Plan) Output() tabprep.Schema { return cloneSchema(p.out) }
+func (p *Plan) Output() tabprep.Schema { return p.out.Clone() }
 
 // InputWidth returns the number of cells of an input row.
 func (p *Plan) InputWidth() int { return len(p.in.Columns) }
@@ -146,16 +146,21 @@ func (p *Plan) OutputWidth() int { return len(p.out.Columns) }
 // numeric column and Str for a categorical one (the Code fields of src are
 // ignored and left alone); dst receives one cell per output column.
 func (p *Plan) Apply(dst, src []tabprep.Cell) error {
+	s := p.scratch.Get().(*rowScratch)
+	defer p.scratch.Put(s)
+	return p.apply(s.regs, dst, src)
+}
+
+// apply is Apply on the given registers.
+func (p *Plan) apply(regs, dst, src []tabprep.Cell) error {
 	if len(src) != len(p.in.Columns) || len(dst) != len(p.out.Columns) {
 		return fmt.Errorf("pipeline: plan: row of %d cells into %d; the plan reads %d and writes %d",
 			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
 	}
-	s := p.scratch.Get().(*rowScratch)
-	defer p.scratch.Put(s)
-	if err := p.run(s.regs, src); err != nil {
+	if err := p.run(regs, src); err != nil {
 		return err
 	}
-	p.gather(dst, s.regs)
+	p.gather(dst, regs)
 	return nil
 }
 
@@ -205,10 +210,15 @@ func (p *Plan) applyFloats(regs []tabprep.Cell, dst []float64, src []tabprep.Cel
 	if err := p.run(regs, src); err != nil {
 		return err
 	}
+	p.gatherFloats(dst, regs)
+	return nil
+}
+
+// gatherFloats copies the output values from regs to dst.
+func (p *Plan) gatherFloats(dst []float64, regs []tabprep.Cell) {
 	for i, k := range p.outSlots {
 		dst[i] = regs[k].Num
 	}
-	return nil
 }
 
 // Runner applies a plan with a register file of its own, saving the pool
@@ -227,16 +237,7 @@ func (p *Plan) Runner() *Runner {
 
 // Apply is [Plan.Apply] on r's own registers.
 func (r *Runner) Apply(dst, src []tabprep.Cell) error {
-	p := r.plan
-	if len(src) != len(p.in.Columns) || len(dst) != len(p.out.Columns) {
-		return fmt.Errorf("pipeline: plan: row of %d cells into %d; the plan reads %d and writes %d",
-			len(src), len(dst), len(p.in.Columns), len(p.out.Columns))
-	}
-	if err := p.run(r.regs, src); err != nil {
-		return err
-	}
-	p.gather(dst, r.regs)
-	return nil
+	return r.plan.apply(r.regs, dst, src)
 }
 
 // ApplyFloats is [Plan.ApplyFloats] on r's own registers.
@@ -285,10 +286,7 @@ func (p *Plan) TransformInto(dst []float64, data *tabprep.Frame) error {
 		if err := p.run(s.regs, src); err != nil {
 			return fmt.Errorf("pipeline: plan: row %d: %w", r, err)
 		}
-		row := dst[r*w : (r+1)*w]
-		for i, k := range p.outSlots {
-			row[i] = s.regs[k].Num
-		}
+		p.gatherFloats(dst[r*w:(r+1)*w], s.regs)
 	}
 	return nil
 }

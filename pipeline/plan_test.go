@@ -1,10 +1,10 @@
 package pipeline_test
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -136,33 +136,21 @@ func TestPlanConcurrent(t *testing.T) {
 	data := randomFrame(rng, 200)
 	batch, err := fp.Transform(data)
 	require.NoError(t, err)
-	var wg sync.WaitGroup
-	bad := make(chan string, 64)
-	for g := 0; g < 64; g++ {
-		wg.Add(1)
-		go func(g int) {
-			defer wg.Done()
-			dst := make([]tabprep.Cell, plan.OutputWidth())
-			for i := g; i < data.NumRows(); i += 3 {
-				if err := plan.Apply(dst, steptest.Row(data, i)); err != nil {
-					bad <- err.Error()
-					return
-				}
-				for j := range dst {
-					c := batch.Col(j)
-					if c.Kind() == tabprep.Numeric && math.Float64bits(c.Value(i)) != math.Float64bits(dst[j].Num) && !math.IsNaN(c.Value(i)) {
-						bad <- "mismatch"
-						return
-					}
+	inParallel(t, 64, func(g int) error {
+		dst := make([]tabprep.Cell, plan.OutputWidth())
+		for i := g; i < data.NumRows(); i += 3 {
+			if err := plan.Apply(dst, steptest.Row(data, i)); err != nil {
+				return err
+			}
+			for j := range dst {
+				c := batch.Col(j)
+				if c.Kind() == tabprep.Numeric && math.Float64bits(c.Value(i)) != math.Float64bits(dst[j].Num) && !math.IsNaN(c.Value(i)) {
+					return errors.New("mismatch")
 				}
 			}
-		}(g)
-	}
-	wg.Wait()
-	close(bad)
-	for msg := range bad {
-		t.Fatal(msg)
-	}
+		}
+		return nil
+	})
 }
 
 func TestTransformInto(t *testing.T) {
@@ -211,37 +199,25 @@ func TestServingPlanConcurrent(t *testing.T) {
 	require.NoError(t, err)
 	batch, err := fitted.Transform(data)
 	require.NoError(t, err)
-	var wg sync.WaitGroup
-	bad := make(chan string, 64)
-	for g := 0; g < 64; g++ {
-		wg.Add(1)
-		go func(g int) {
-			defer wg.Done()
-			run := plan.Runner()
-			dst := make([]float64, plan.OutputWidth())
-			for i := g; i < data.NumRows(); i += 16 {
-				var err error
-				if g%2 == 0 {
-					err = plan.ApplyFloats(dst, steptest.Row(data, i))
-				} else {
-					err = run.ApplyFloats(dst, steptest.Row(data, i))
-				}
-				if err != nil {
-					bad <- err.Error()
-					return
-				}
-				for j, v := range dst {
-					if math.Float64bits(v) != math.Float64bits(batch.Col(j).Value(i)) {
-						bad <- fmt.Sprintf("row %d column %s: plan %v, batch %v", i, batch.Col(j).Name(), v, batch.Col(j).Value(i))
-						return
-					}
+	inParallel(t, 64, func(g int) error {
+		run := plan.Runner()
+		dst := make([]float64, plan.OutputWidth())
+		for i := g; i < data.NumRows(); i += 16 {
+			var err error
+			if g%2 == 0 {
+				err = plan.ApplyFloats(dst, steptest.Row(data, i))
+			} else {
+				err = run.ApplyFloats(dst, steptest.Row(data, i))
+			}
+			if err != nil {
+				return err
+			}
+			for j, v := range dst {
+				if math.Float64bits(v) != math.Float64bits(batch.Col(j).Value(i)) {
+					return fmt.Errorf("row %d column %s: plan %v, batch %v", i, batch.Col(j).Name(), v, batch.Col(j).Value(i))
 				}
 			}
-		}(g)
-	}
-	wg.Wait()
-	close(bad)
-	for msg := range bad {
-		t.Fatal(msg)
-	}
+		}
+		return nil
+	})
 }

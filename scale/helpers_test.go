@@ -1,7 +1,6 @@
 package scale_test
 
 import (
-	"bytes"
 	"math"
 	"math/rand/v2"
 	"testing"
@@ -9,7 +8,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"github.com/tabprep/tabprep"
-	"github.com/tabprep/tabprep/pipeline"
+	"github.com/tabprep/tabprep/internal/steptest"
 )
 
 var nan = math.NaN()
@@ -73,24 +72,9 @@ func snapshot(f *tabprep.Frame) *tabprep.Frame {
 	return g
 }
 
-// roundTrip fits a one-step pipeline on train, saves it to a buffer, loads
-// it back, and requires the loaded pipeline to transform data bit for bit as
-// the in-memory one does. It returns the transformed data.
-func roundTrip(t *testing.T, stage pipeline.Stage, train, data *tabprep.Frame) *tabprep.Frame {
-	t.Helper()
-	fitted, err := pipeline.New(stage).Fit(train)
-	require.NoError(t, err)
-	var buf bytes.Buffer
-	require.NoError(t, fitted.Save(&buf))
-	loaded, err := pipeline.Load(&buf)
-	require.NoError(t, err)
-	want, err := fitted.Transform(data)
-	require.NoError(t, err)
-	got, err := loaded.Transform(data)
-	require.NoError(t, err)
-	require.True(t, tabprep.Equal(want, got), "loaded pipeline differs")
-	return want
-}
+// roundTrip is steptest.RoundTrip: fit, save, load, and the same output
+// bit for bit.
+var roundTrip = steptest.RoundTrip
 
 // requireMissingKept requires every missing cell of in to be missing in out
 // and every other cell of the named columns to be present.

@@ -15,6 +15,7 @@ import (
 	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
 	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 	"github.com/tabprep/tabprep/scale"
 )
@@ -74,28 +75,17 @@ func TestGoldenV1(t *testing.T) {
 	// The compiled plan agrees with the batch transform on the golden rows.
 	plan, err := fitted.Compile()
 	require.NoError(t, err)
+	rows, err := fitted.Input().Conform("golden", in)
+	require.NoError(t, err)
 	dst := make([]float64, plan.OutputWidth())
 	run := plan.Runner()
 	for i := 0; i < in.NumRows(); i++ {
-		require.NoError(t, run.ApplyFloats(dst, rowCells(in, fitted.Input(), i)))
+		require.NoError(t, run.ApplyFloats(dst, steptest.Row(rows, i)))
 		for j, v := range dst {
 			w := got.Col(j).Value(i)
 			require.True(t, math.Float64bits(v) == math.Float64bits(w) || (v != v && w != w), "row %d column %s", i, got.Col(j).Name())
 		}
 	}
-}
-
-func rowCells(f *tabprep.Frame, s tabprep.Schema, i int) []tabprep.Cell {
-	out := make([]tabprep.Cell, len(s.Columns))
-	for j, c := range s.Columns {
-		col, _ := f.Column(c.Name)
-		if c.Kind == tabprep.Numeric {
-			out[j].Num = col.Value(i)
-		} else {
-			out[j].Str = col.Level(i)
-		}
-	}
-	return out
 }
 
 func writeGoldenOnce(t *testing.T, statePath, inPath, outPath string) {

@@ -1,8 +1,10 @@
 // Package steptest holds test helpers shared by the step packages: checks
-// that a step's compiled row kernel agrees with its batch transform.
+// that a step's compiled row kernel agrees with its batch transform, and
+// that a saved and loaded pipeline transforms as the one in memory.
 package steptest
 
 import (
+	"bytes"
 	"math"
 	"testing"
 
@@ -121,4 +123,29 @@ func MatchBatch(t testing.TB, run func(dst, src []tabprep.Cell) error, out tabpr
 			require.Zero(t, testing.AllocsPerRun(20, func() { _ = run(dst, src) }), "row %d allocates", i)
 		}
 	}
+}
+
+// Reloaded saves fitted to a state document and loads it back.
+func Reloaded(t testing.TB, fitted *pipeline.Fitted) *pipeline.Fitted {
+	t.Helper()
+	var buf bytes.Buffer
+	require.NoError(t, fitted.Save(&buf))
+	loaded, err := pipeline.Load(&buf)
+	require.NoError(t, err)
+	return loaded
+}
+
+// RoundTrip fits a pipeline of stage on train, saves and loads it, and
+// requires the loaded pipeline to transform data bit for bit as the
+// in-memory one does. It returns the transformed data.
+func RoundTrip(t testing.TB, stage pipeline.Stage, train, data *tabprep.Frame) *tabprep.Frame {
+	t.Helper()
+	fitted, err := pipeline.New(stage).Fit(train)
+	require.NoError(t, err)
+	want, err := fitted.Transform(data)
+	require.NoError(t, err)
+	got, err := Reloaded(t, fitted).Transform(data)
+	require.NoError(t, err)
+	require.True(t, tabprep.Equal(want, got), "Save/Load changed the transform")
+	return want
 }
