@@ -253,11 +253,16 @@ func (s OneHot) Transform(p OneHotParams, data *tabprep.Frame) (*tabprep.Frame, 
 	return assemble(op, data, outs)
 }
 
-// RowKernel returns a row function that writes the same cells as
-// [OneHot.Transform], without allocating: each level's output position is
-// looked up once per cell in a map built here.
-func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.onehot row"
+// oneHotRow is the row form of one fitted column of a one-hot step.
+type oneHotRow struct {
+	source          string
+	from, to, width int
+	table           []int32 // by layout code: output offset, -1 none, -2 error
+	missing, unseen int32
+}
+
+// rows records the step's columns in l and returns their row form.
+func (s OneHot) rows(op string, p OneHotParams, l *tabprep.RowLayout) ([]oneHotRow, error) {
 	sources := make([]string, len(p.Columns))
 	fields := make([][]tabprep.Field, len(p.Columns))
 	for i, oc := range p.Columns {
@@ -270,16 +275,23 @@ func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	if err != nil {
 		return nil, err
 	}
-	type plan struct {
-		from, to, width int
-		table           []int32 // by layout code: output offset, -1 none, -2 error
-		missing, unseen int32
-	}
-	plans := make([]plan, len(p.Columns))
+	rows := make([]oneHotRow, len(p.Columns))
 	for i, oc := range p.Columns {
 		index, other, missing := oc.slots()
 		unseen := s.unseenSlot(other)
-		plans[i] = plan{from: at[i], to: to[i], width: len(fields[i]), table: byCode(levels[i], index, unseen), missing: missing, unseen: unseen}
+		rows[i] = oneHotRow{source: sources[i], from: at[i], to: to[i], width: len(fields[i]), table: byCode(levels[i], index, unseen), missing: missing, unseen: unseen}
+	}
+	return rows, nil
+}
+
+// RowKernel returns a row function that writes the same cells as
+// [OneHot.Transform], without allocating: each level's output position is
+// looked up once per cell in a table built here.
+func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.onehot row"
+	plans, err := s.rows(op, p, l)
+	if err != nil {
+		return nil, err
 	}
 	fn := func(regs []tabprep.Cell) error {
 		for i := range plans {
@@ -293,7 +305,7 @@ func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc
 				j = pl.missing
 			}
 			if j == -2 {
-				return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training; the step's Unseen policy is %q", c.Str, UnseenError)
+				return tabprep.Errorf(op, ErrUnseen, pl.source, "level %q was not seen in training; the step's Unseen policy is %q", c.Str, UnseenError)
 			}
 			// The output slots are this kernel's own and numeric, so only
 			// their numbers need writing.
@@ -310,4 +322,42 @@ func (s OneHot) RowKernel(p OneHotParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	return fn, nil
 }
 
-var _ tabprep.RowKernel[OneHotParams] = OneHot{}
+// RowSource writes what RowKernel does as Go source, for generated plans:
+// every output starts at 0 and a switch on the level code sets the one.
+func (s OneHot) RowSource(p OneHotParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	plans, err := s.rows("encode.onehot row", p, l)
+	if err != nil {
+		return err
+	}
+	for _, pl := range plans {
+		for k := range pl.width {
+			w.Line("%s = 0", w.Num(pl.to+k))
+		}
+		set := func(j int32) {
+			switch {
+			case j == -2:
+				w.GiveUp()
+			case j >= 0:
+				w.Line("%s = 1", w.Num(pl.to+int(j)))
+			}
+		}
+		w.Line("switch %s {", w.Code(pl.from))
+		for code, j := range pl.table {
+			if j != pl.unseen {
+				w.Line("case %d:", code)
+				set(j)
+			}
+		}
+		w.Line("case %d:", tabprep.MissingCode)
+		set(pl.missing)
+		w.Line("default:")
+		set(pl.unseen)
+		w.Line("}")
+	}
+	return nil
+}
+
+var (
+	_ tabprep.RowKernel[OneHotParams] = OneHot{}
+	_ tabprep.RowSource[OneHotParams] = OneHot{}
+)

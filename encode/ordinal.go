@@ -135,12 +135,13 @@ func (s Ordinal) Transform(p OrdinalParams, data *tabprep.Frame) (*tabprep.Frame
 	return assemble(op, data, outs)
 }
 
-// RowKernel returns a row function that writes the same cells as
-// [Ordinal.Transform], without allocating.
-func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.ordinal row"
-	unseen, unseenOK := s.fallback(s.UnseenCode)
-	missing, missingOK := s.fallback(s.MissingCode)
+// ordinalNone marks, in an ordinal row table, a layout level training
+// never saw.
+const ordinalNone = -1
+
+// rows records the step's columns in l and returns, for each, its slot and
+// the code of each layout level.
+func (s Ordinal) rows(op string, p OrdinalParams, l *tabprep.RowLayout) (at []int, tables [][]int32, err error) {
 	sources := make([]string, len(p.Columns))
 	fields := make([][]tabprep.Field, len(p.Columns))
 	for i, oc := range p.Columns {
@@ -149,32 +150,44 @@ func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFu
 	}
 	at, levels, _, err := arrange(op, l, sources, tabprep.Categorical, fields)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	const none = -1 // a layout level training never saw
-	tables := make([][]int32, len(p.Columns))
+	tables = make([][]int32, len(p.Columns))
 	for i, oc := range p.Columns {
-		tables[i] = byCode(levels[i], indexOf(oc.Levels), none)
+		tables[i] = byCode(levels[i], indexOf(oc.Levels), ordinalNone)
+	}
+	return at, tables, nil
+}
+
+// RowKernel returns a row function that writes the same cells as
+// [Ordinal.Transform], without allocating.
+func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	const op = "encode.ordinal row"
+	unseen, unseenOK := s.fallback(s.UnseenCode)
+	missing, missingOK := s.fallback(s.MissingCode)
+	at, tables, err := s.rows(op, p, l)
+	if err != nil {
+		return nil, err
 	}
 	// The column turns numeric: only Num is written, since a numeric
 	// cell's Str and Code mean nothing (see tabprep.RowFunc).
 	fn := func(regs []tabprep.Cell) error {
 		for i, table := range tables {
 			c := &regs[at[i]]
-			k := int32(none)
+			k := int32(ordinalNone)
 			switch {
 			case c.Code >= 0:
 				k = table[c.Code]
 			case c.Code == tabprep.MissingCode:
 				if !missingOK {
-					return tabprep.Errorf(op, tabprep.ErrValue, sources[i], "missing cell and no MissingCode; set MissingCode or fill the column first")
+					return tabprep.Errorf(op, tabprep.ErrValue, p.Columns[i].Name, "missing cell and no MissingCode; set MissingCode or fill the column first")
 				}
 				c.Num = missing
 				continue
 			}
-			if k == none {
+			if k == ordinalNone {
 				if !unseenOK {
-					return tabprep.Errorf(op, ErrUnseen, sources[i], "level %q was not seen in training and no UnseenCode is set", c.Str)
+					return tabprep.Errorf(op, ErrUnseen, p.Columns[i].Name, "level %q was not seen in training and no UnseenCode is set", c.Str)
 				}
 				c.Num = unseen
 				continue
@@ -186,4 +199,41 @@ func (s Ordinal) RowKernel(p OrdinalParams, l *tabprep.RowLayout) (tabprep.RowFu
 	return fn, nil
 }
 
-var _ tabprep.RowKernel[OrdinalParams] = Ordinal{}
+// RowSource writes what RowKernel does as Go source, for generated plans:
+// a switch from level code to number.
+func (s Ordinal) RowSource(p OrdinalParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	unseen, unseenOK := s.fallback(s.UnseenCode)
+	missing, missingOK := s.fallback(s.MissingCode)
+	at, tables, err := s.rows("encode.ordinal row", p, l)
+	if err != nil {
+		return err
+	}
+	set := func(n string, v float64, ok bool) {
+		if !ok {
+			w.GiveUp()
+			return
+		}
+		w.Line("%s = %s", n, w.Float(v))
+	}
+	for i, table := range tables {
+		n := w.Num(at[i])
+		w.Line("switch %s {", w.Code(at[i]))
+		for code, k := range table {
+			if k != ordinalNone {
+				w.Line("case %d:", code)
+				set(n, float64(k), true)
+			}
+		}
+		w.Line("case %d:", tabprep.MissingCode)
+		set(n, missing, missingOK)
+		w.Line("default:")
+		set(n, unseen, unseenOK)
+		w.Line("}")
+	}
+	return nil
+}
+
+var (
+	_ tabprep.RowKernel[OrdinalParams] = Ordinal{}
+	_ tabprep.RowSource[OrdinalParams] = Ordinal{}
+)

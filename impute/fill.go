@@ -91,6 +91,49 @@ type cellFill struct {
 // filled in their slots. A constant level is added to a categorical
 // column's levels in the layout if it lacks it, as Transform does.
 func fillKernel(op string, p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	fills, err := cellFills(op, p, l)
+	if err != nil {
+		return nil, err
+	}
+	fn := func(regs []tabprep.Cell) error {
+		for i := range fills {
+			f := &fills[i]
+			c := &regs[f.slot]
+			if f.numeric {
+				if math.IsNaN(c.Num) {
+					c.Num = f.num
+				}
+			} else if c.Code == tabprep.MissingCode {
+				c.Str, c.Code = f.level, f.code
+			}
+		}
+		return nil
+	}
+	return fn, nil
+}
+
+// fillSource writes the fill of p as Go source: what fillKernel does.
+func fillSource(op string, p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	fills, err := cellFills(op, p, l)
+	if err != nil {
+		return err
+	}
+	for _, f := range fills {
+		if f.numeric {
+			n := w.Num(f.slot)
+			w.Line("if %s != %s {", n, n)
+			w.Line("%s = %s", n, w.Float(f.num))
+		} else {
+			w.Line("if %s == %d {", w.Code(f.slot), tabprep.MissingCode)
+			w.Line("%s, %s = %s, %d", w.Str(f.slot), w.Code(f.slot), w.Quote(f.level), f.code)
+		}
+		w.Line("}")
+	}
+	return nil
+}
+
+// cellFills records the fill of p in l and returns it by slot.
+func cellFills(op string, p FillParams, l *tabprep.RowLayout) ([]cellFill, error) {
 	var fills []cellFill
 	for _, f := range p.Columns {
 		slot, field, ok := l.Slot(f.Name)
@@ -111,21 +154,7 @@ func fillKernel(op string, p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc,
 		}
 		fills = append(fills, cf)
 	}
-	fn := func(regs []tabprep.Cell) error {
-		for i := range fills {
-			f := &fills[i]
-			c := &regs[f.slot]
-			if f.numeric {
-				if math.IsNaN(c.Num) {
-					c.Num = f.num
-				}
-			} else if c.Code == tabprep.MissingCode {
-				c.Str, c.Code = f.level, f.code
-			}
-		}
-		return nil
-	}
-	return fn, nil
+	return fills, nil
 }
 
 // fitSelected fits rule r on each of cols, decided by the step itself.

@@ -33,3 +33,8 @@ func (s Mean) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, erro
 func (s Mean) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return fillKernel(s.Kind()+" row", p, l)
 }
+
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Mean) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
+}

@@ -105,3 +105,8 @@ func (s Fill) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, erro
 func (s Fill) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return fillKernel("impute.fill row", p, l)
 }
+
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Fill) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource("impute.fill row", p, l, w)
+}

@@ -70,6 +70,11 @@ func (s Median) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, 
 	return fillKernel(s.Kind()+" row", p, l)
 }
 
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Median) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
+}
+
 // Kind returns "impute.min".
 func (Min) Kind() string { return "impute.min" }
 
@@ -86,6 +91,11 @@ func (s Min) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, error
 // RowKernel returns the fill of p for single rows laid out by l.
 func (s Min) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return fillKernel(s.Kind()+" row", p, l)
+}
+
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Min) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
 }
 
 // Kind returns "impute.max".
@@ -106,6 +116,11 @@ func (s Max) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, err
 	return fillKernel(s.Kind()+" row", p, l)
 }
 
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Max) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
+}
+
 // Kind returns "impute.mostfrequent".
 func (MostFrequent) Kind() string { return "impute.mostfrequent" }
 
@@ -122,6 +137,11 @@ func (s MostFrequent) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Fra
 // RowKernel returns the fill of p for single rows laid out by l.
 func (s MostFrequent) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return fillKernel(s.Kind()+" row", p, l)
+}
+
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s MostFrequent) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
 }
 
 // Kind returns "impute.constant".
@@ -141,4 +161,9 @@ func (s Constant) Transform(p FillParams, data *tabprep.Frame) (*tabprep.Frame, 
 // RowKernel returns the fill of p for single rows laid out by l.
 func (s Constant) RowKernel(p FillParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return fillKernel(s.Kind()+" row", p, l)
+}
+
+// RowSource writes the fill of p as Go source, for generated plans.
+func (s Constant) RowSource(p FillParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return fillSource(s.Kind()+" row", p, l, w)
 }

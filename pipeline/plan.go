@@ -27,8 +27,9 @@ type Plan struct {
 	entry      []entryCode    // one per categorical input column
 	fields     map[string]int // input column name → position, for the helpers
 	numericOut bool
-	scratch    sync.Pool // *rowScratch
-	structs    sync.Map  // reflect.Type → []int, for FromStruct
+	gen        func(dst []float64, src []tabprep.Cell) bool // from CompileWith, or nil
+	scratch    sync.Pool                                    // *rowScratch
+	structs    sync.Map                                     // reflect.Type → []int, for FromStruct
 }
 
 // levelTable maps a level string to its code with a small open-addressing
@@ -194,6 +195,9 @@ func (p *Plan) run(regs, src []tabprep.Cell) error {
 // ApplyFloats is [Plan.Apply] for a pipeline whose output columns are all
 // numeric, as a model's input is: it writes the output values into dst.
 func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
+	if p.gen != nil && p.gen(dst, src) {
+		return nil
+	}
 	s := p.scratch.Get().(*rowScratch)
 	defer p.scratch.Put(s)
 	return p.applyFloats(s.regs, dst, src)
@@ -242,6 +246,9 @@ func (r *Runner) Apply(dst, src []tabprep.Cell) error {
 
 // ApplyFloats is [Plan.ApplyFloats] on r's own registers.
 func (r *Runner) ApplyFloats(dst []float64, src []tabprep.Cell) error {
+	if r.plan.gen != nil && r.plan.gen(dst, src) {
+		return nil
+	}
 	return r.plan.applyFloats(r.regs, dst, src)
 }
 
@@ -283,10 +290,14 @@ func (p *Plan) TransformInto(dst []float64, data *tabprep.Frame) error {
 				src[i].Str = c.Level(r)
 			}
 		}
+		out := dst[r*w : (r+1)*w]
+		if p.gen != nil && p.gen(out, src) {
+			continue
+		}
 		if err := p.run(s.regs, src); err != nil {
 			return fmt.Errorf("pipeline: plan: row %d: %w", r, err)
 		}
-		p.gatherFloats(dst[r*w:(r+1)*w], s.regs)
+		p.gatherFloats(out, s.regs)
 	}
 	return nil
 }

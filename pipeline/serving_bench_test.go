@@ -1,13 +1,13 @@
 package pipeline_test
 
 import (
-	"bytes"
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
+	"github.com/tabprep/tabprep/examples/quickstart/demodata/demoplan"
 	"github.com/tabprep/tabprep/impute"
 	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
@@ -19,15 +19,7 @@ import (
 // outcome.
 func servingPipeline(tb testing.TB) (*pipeline.Fitted, *tabprep.Frame) {
 	tb.Helper()
-	data, err := tabprep.ReadCSV(bytes.NewReader(demodata.CSV), nil)
-	if err != nil {
-		tb.Fatal(err)
-	}
-	if data, err = data.Without("no_show", "booked_on"); err != nil {
-		tb.Fatal(err)
-	}
-	p := demodata.Pipeline()
-	fitted, err := p.Fit(data)
+	fitted, data, err := demodata.Serving()
 	if err != nil {
 		tb.Fatal(err)
 	}
@@ -128,11 +120,12 @@ func handWritten(dst []float64, src []tabprep.Cell, k *handConsts) {
 	}
 }
 
-// servingRows returns the demo rows as input cells, and checks before any
-// timing that the plan and the hand-written function agree bit for bit.
-func servingRows(b *testing.B) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
+// servingRows returns the demo rows as input cells and the plan compiled
+// with compile, and checks before any timing that the plan and the
+// hand-written function agree bit for bit.
+func servingRows(b *testing.B, compile func(*pipeline.Fitted) (*pipeline.Plan, error)) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
 	fitted, data := servingPipeline(b)
-	plan, err := fitted.Compile()
+	plan, err := compile(fitted)
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -157,6 +150,14 @@ func servingRows(b *testing.B) (*pipeline.Plan, [][]tabprep.Cell, handConsts) {
 	return plan, rows, k
 }
 
+// generated compiles f with its generated source, as a latency-bound
+// scoring service does.
+func generated(f *pipeline.Fitted) (*pipeline.Plan, error) { return f.CompileWith(demoplan.Plan) }
+
+// interpreted compiles f without generated source, as a service that loads
+// state files it was not built with does.
+func interpreted(f *pipeline.Fitted) (*pipeline.Plan, error) { return f.Compile() }
+
 // benchRows calls score on the demo rows in turn, one row per op.
 func benchRows(b *testing.B, rows [][]tabprep.Cell, score func(row []tabprep.Cell) error) {
 	b.ReportAllocs()
@@ -173,25 +174,35 @@ func benchRows(b *testing.B, rows [][]tabprep.Cell, score func(row []tabprep.Cel
 }
 
 // BenchmarkRowPlan runs the compiled plan one row per op, the way a
-// scoring loop does: with a Runner, its register file of its own.
+// scoring loop does: with a Runner, its register file of its own, and the
+// plan compiled with its generated source (Fitted.CompileWith).
 func BenchmarkRowPlan(b *testing.B) {
-	plan, rows, _ := servingRows(b)
+	plan, rows, _ := servingRows(b, generated)
 	run := plan.Runner()
 	dst := make([]float64, plan.OutputWidth())
 	benchRows(b, rows, func(row []tabprep.Cell) error { return run.ApplyFloats(dst, row) })
 }
 
-// BenchmarkRowPlanPooled is BenchmarkRowPlan through Plan.ApplyFloats,
-// which takes its registers from a pool on every row.
+// BenchmarkRowPlanInterpreted is BenchmarkRowPlan with the plan of
+// Fitted.Compile alone, which walks its tables for every cell.
+func BenchmarkRowPlanInterpreted(b *testing.B) {
+	plan, rows, _ := servingRows(b, interpreted)
+	run := plan.Runner()
+	dst := make([]float64, plan.OutputWidth())
+	benchRows(b, rows, func(row []tabprep.Cell) error { return run.ApplyFloats(dst, row) })
+}
+
+// BenchmarkRowPlanPooled is BenchmarkRowPlanInterpreted through
+// Plan.ApplyFloats, which takes its registers from a pool on every row.
 func BenchmarkRowPlanPooled(b *testing.B) {
-	plan, rows, _ := servingRows(b)
+	plan, rows, _ := servingRows(b, interpreted)
 	dst := make([]float64, plan.OutputWidth())
 	benchRows(b, rows, func(row []tabprep.Cell) error { return plan.ApplyFloats(dst, row) })
 }
 
 // BenchmarkRowHandWritten runs handWritten on the same rows.
 func BenchmarkRowHandWritten(b *testing.B) {
-	_, rows, k := servingRows(b)
+	_, rows, k := servingRows(b, interpreted)
 	dst := make([]float64, 19)
 	benchRows(b, rows, func(row []tabprep.Cell) error { handWritten(dst, row, &k); return nil })
 }

@@ -299,6 +299,41 @@ func (m *mapper) rowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	}, nil
 }
 
+// rowSource writes what rowKernel does as Go source, for generated plans;
+// only affine maps have a source form.
+func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	if m.linear == nil {
+		return tabprep.Errorf(m.op, tabprep.ErrOption, "", "only affine maps have a Go source form; use the interpreted plan")
+	}
+	slots, err := m.slots(l)
+	if err != nil {
+		return err
+	}
+	// The same expressions as rowKernel's, in the same order, so the bits
+	// agree.
+	for j, k := range slots {
+		a := m.linear[j]
+		n := w.Num(k)
+		switch {
+		case a.clip || a.divide:
+			y := "(" + n + " - " + w.Float(a.center) + ")*" + w.Float(1/a.scale)
+			if a.divide {
+				y = "(" + n + " - " + w.Float(a.center) + ")/" + w.Float(a.scale)
+			}
+			y += " + " + w.Float(a.offset)
+			if a.clip {
+				y = "min(max(" + y + ", " + w.Float(a.lo) + "), " + w.Float(a.hi) + ")"
+			}
+			w.Line("%s = %s", n, y)
+		case a.offset == 0:
+			w.Line("%s = (%s - %s) * %s", n, n, w.Float(a.center), w.Float(1/a.scale))
+		default:
+			w.Line("%s = (%s-%s)*%s + %s", n, n, w.Float(a.center), w.Float(1/a.scale), w.Float(a.offset))
+		}
+	}
+	return nil
+}
+
 // slots returns the register slot of each of m's columns in l, which the
 // step rewrites in place.
 func (m *mapper) slots(l *tabprep.RowLayout) ([]int, error) {
@@ -350,6 +385,14 @@ func invert(kind string, p columnwise, data *tabprep.Frame) (*tabprep.Frame, err
 		return nil, err
 	}
 	return m.frame(data)
+}
+
+func rowSource(kind string, p columnwise, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	m, err := p.mapper(opName(kind, "row"), false)
+	if err != nil {
+		return err
+	}
+	return m.rowSource(l, w)
 }
 
 func rowKernel(kind string, p columnwise, l *tabprep.RowLayout) (tabprep.RowFunc, error) {

@@ -96,6 +96,11 @@ func (s DecimalScaling) RowKernel(p DecimalScalingParams, l *tabprep.RowLayout) 
 	return rowKernel(s.Kind(), p, l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s DecimalScaling) RowSource(p DecimalScalingParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
+}
+
 var (
 	_ tabprep.Step[DecimalScalingParams]      = DecimalScaling{}
 	_ tabprep.Inverter[DecimalScalingParams]  = DecimalScaling{}

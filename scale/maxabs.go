@@ -84,6 +84,11 @@ func (s MaxAbs) RowKernel(p MaxAbsParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	return rowKernel(s.Kind(), p, l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s MaxAbs) RowSource(p MaxAbsParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
+}
+
 var (
 	_ tabprep.Step[MaxAbsParams]      = MaxAbs{}
 	_ tabprep.Inverter[MaxAbsParams]  = MaxAbs{}

@@ -119,6 +119,11 @@ func (s MinMax) RowKernel(p MinMaxParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	return rowKernel(s.Kind(), p, l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s MinMax) RowSource(p MinMaxParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
+}
+
 var (
 	_ tabprep.Step[MinMaxParams]      = MinMax{}
 	_ tabprep.Inverter[MinMaxParams]  = MinMax{}

@@ -104,6 +104,11 @@ func (s Robust) RowKernel(p RobustParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	return rowKernel(s.Kind(), p, l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Robust) RowSource(p RobustParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
+}
+
 var (
 	_ tabprep.Step[RobustParams]      = Robust{}
 	_ tabprep.Inverter[RobustParams]  = Robust{}

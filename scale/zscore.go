@@ -91,6 +91,11 @@ func (s ZScore) RowKernel(p ZScoreParams, l *tabprep.RowLayout) (tabprep.RowFunc
 	return rowKernel(s.Kind(), p, l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s ZScore) RowSource(p ZScoreParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
+}
+
 // Accumulator returns an empty accumulator that fits the z-score chunk by
 // chunk; its Finish gives the same parameters as Fit on all the rows, to
 // rounding.

@@ -31,6 +31,10 @@ type Fitted interface {
 	// l, which it updates to the step's output, or an error if the step
 	// cannot act on one row.
 	RowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error)
+	// RowSource writes the step's row kernel as Go source to w, for rows
+	// laid out by l, which it updates as RowKernel does; it returns an error
+	// if the step has no source form.
+	RowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error
 }
 
 // Bound is the [Fitted] value of a step S with parameters P.
@@ -86,6 +90,15 @@ func (b *Bound[S, P]) RowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 		return nil, tabprep.Errorf(b.Kind(), tabprep.ErrOption, "", "step cannot act on a single row")
 	}
 	return rk.RowKernel(b.params, l)
+}
+
+// RowSource calls the step's RowSource, if it has one.
+func (b *Bound[S, P]) RowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	rs, ok := any(b.step).(tabprep.RowSource[P])
+	if !ok {
+		return tabprep.Errorf(b.Kind(), tabprep.ErrOption, "", "step has no Go source form")
+	}
+	return rs.RowSource(b.params, l, w)
 }
 
 // decoder rebuilds a Fitted from its JSON spec and params.

@@ -149,3 +149,43 @@ func RoundTrip(t testing.TB, stage pipeline.Stage, train, data *tabprep.Frame) *
 	require.True(t, tabprep.Equal(want, got), "Save/Load changed the transform")
 	return want
 }
+
+// MatchGenerated compiles fitted twice, as the interpreted plan and with
+// the generated code g, and requires that every row of rows gives the same
+// error, or none, and the same values bit for bit through both, by
+// Plan.ApplyFloats and Runner.ApplyFloats. It also requires that g is refused once the pipeline's parameters differ
+// from those it was generated from (g with another digest). It returns the
+// number of rows that gave an error.
+func MatchGenerated(t testing.TB, fitted *pipeline.Fitted, g pipeline.Generated, rows [][]tabprep.Cell) (failed int) {
+	t.Helper()
+	interp, err := fitted.Compile()
+	require.NoError(t, err)
+	gen, err := fitted.CompileWith(g)
+	require.NoError(t, err)
+	stale := g
+	stale.Digest = "sha256:0"
+	_, err = fitted.CompileWith(stale)
+	require.ErrorIs(t, err, tabprep.ErrSchema)
+
+	w := interp.OutputWidth()
+	want, got := make([]float64, w), make([]float64, w)
+	run := gen.Runner()
+	for i, row := range rows {
+		werr := interp.ApplyFloats(want, row)
+		gerr := gen.ApplyFloats(got, row)
+		rerr := run.ApplyFloats(got, row)
+		if werr != nil {
+			require.EqualError(t, gerr, werr.Error(), "row %d", i)
+			require.EqualError(t, rerr, werr.Error(), "row %d", i)
+			failed++
+			continue
+		}
+		require.NoError(t, gerr, "row %d", i)
+		require.NoError(t, rerr, "row %d", i)
+		for j := range want {
+			require.Equal(t, math.Float64bits(want[j]), math.Float64bits(got[j]),
+				"row %d column %s: interpreted %v, generated %v", i, interp.Output().Columns[j].Name, want[j], got[j])
+		}
+	}
+	return failed
+}

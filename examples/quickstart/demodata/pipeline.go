@@ -1,6 +1,8 @@
 package demodata
 
 import (
+	"bytes"
+
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/impute"
@@ -23,4 +25,23 @@ func Pipeline() *pipeline.Pipeline {
 		}),
 		pipeline.Use(scale.ZScore{Columns: tabprep.Names("days_ahead", "pet_age", "distance_km", "prior_no_shows")}),
 	)
+}
+
+// Serving returns the demo data as a scoring service sees it, without the
+// outcome (no_show) and the booking date, and Pipeline fitted on all of it:
+// what the serving benchmarks and the generated row plan in package
+// demoplan are built from.
+func Serving() (*pipeline.Fitted, *tabprep.Frame, error) {
+	data, err := tabprep.ReadCSV(bytes.NewReader(CSV), nil)
+	if err != nil {
+		return nil, nil, err
+	}
+	if data, err = data.Without("no_show", "booked_on"); err != nil {
+		return nil, nil, err
+	}
+	fitted, err := Pipeline().Fit(data)
+	if err != nil {
+		return nil, nil, err
+	}
+	return fitted, data, nil
 }

@@ -1,0 +1,116 @@
+package tabprep
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+)
+
+// RowSource is implemented by steps whose row kernel can also be written
+// out as Go source, so that a fitted pipeline can be generated ahead of
+// time into a plain Go function: an interpreted plan spends most of its
+// time walking tables, which generated code turns into constants and
+// switches the compiler can see.
+//
+// RowSource must record in l exactly what the step's RowKernel records, and
+// the code it writes must give the same bits as the kernel. Where the
+// kernel would return an error, the code gives up on the row with
+// [SourceWriter.GiveUp]; the generated function's caller then runs the
+// interpreted plan on that row, which reports the error.
+type RowSource[P any] interface {
+	RowSource(p P, l *RowLayout, w *SourceWriter) error
+}
+
+// SourceWriter collects the Go statements of a generated row function. The
+// function holds every slot of the register file in local variables: the
+// number in [SourceWriter.Num] and, for a categorical cell, the level in
+// [SourceWriter.Str] and its code in [SourceWriter.Code]. A step reads and
+// writes the variables of the slots its layout gives it.
+type SourceWriter struct {
+	b      strings.Builder
+	used   map[string]bool
+	indent int
+}
+
+// NewSourceWriter returns an empty writer.
+func NewSourceWriter() *SourceWriter { return &SourceWriter{used: map[string]bool{}} }
+
+func (w *SourceWriter) local(prefix string, slot int) string {
+	name := prefix + strconv.Itoa(slot)
+	w.used[name] = true
+	return name
+}
+
+// Num returns the variable holding the number of slot.
+func (w *SourceWriter) Num(slot int) string { return w.local("n", slot) }
+
+// Str returns the variable holding the level of the categorical cell in slot.
+func (w *SourceWriter) Str(slot int) string { return w.local("s", slot) }
+
+// Code returns the variable holding the level code (an int32) of the
+// categorical cell in slot.
+func (w *SourceWriter) Code(slot int) string { return w.local("c", slot) }
+
+// Used returns the variables referenced so far, for the generator to
+// declare: those starting with prefix ("n", "s" or "c"), by slot.
+func (w *SourceWriter) Used(prefix string) []string {
+	var slots []int
+	for n := range w.used {
+		if rest, ok := strings.CutPrefix(n, prefix); ok {
+			k, _ := strconv.Atoi(rest)
+			slots = append(slots, k)
+		}
+	}
+	slices.Sort(slots)
+	names := make([]string, len(slots))
+	for i, k := range slots {
+		names[i] = prefix + strconv.Itoa(k)
+	}
+	return names
+}
+
+// Line writes one statement, formatted as by fmt.Sprintf. A line ending in
+// "{" opens a block and one starting with "}" closes one, for indentation.
+func (w *SourceWriter) Line(format string, args ...any) {
+	s := fmt.Sprintf(format, args...)
+	if strings.HasPrefix(s, "}") || strings.HasPrefix(s, "case ") || strings.HasPrefix(s, "default:") {
+		w.indent--
+	}
+	w.b.WriteString(strings.Repeat("\t", w.indent+1))
+	w.b.WriteString(s)
+	w.b.WriteByte('\n')
+	if strings.HasSuffix(s, "{") || strings.HasPrefix(s, "case ") || strings.HasPrefix(s, "default:") {
+		w.indent++
+	}
+}
+
+// GiveUp writes the statement that abandons the row, for a case the
+// kernel reports as an error.
+func (w *SourceWriter) GiveUp() { w.Line("return false") }
+
+// Float returns a Go expression with exactly the bits of v when used as a
+// float64.
+func (w *SourceWriter) Float(v float64) string {
+	switch {
+	case math.IsNaN(v):
+		return "math.NaN()"
+	case math.IsInf(v, 1):
+		return "math.Inf(1)"
+	case math.IsInf(v, -1):
+		return "math.Inf(-1)"
+	case v == 0 && math.Signbit(v):
+		return "math.Copysign(0, -1)"
+	}
+	// The shortest decimal that reads back as v: as an untyped constant it
+	// converts to the nearest float64, which is v. Only use it where the
+	// constant becomes a float64 at once (an operand or a value of one).
+	return strconv.FormatFloat(v, 'g', -1, 64)
+}
+
+// Quote returns s as a Go string literal.
+func (w *SourceWriter) Quote(s string) string { return strconv.Quote(s) }
+
+// String returns the statements written so far.
+func (w *SourceWriter) String() string { return w.b.String() }
