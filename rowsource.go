@@ -29,9 +29,8 @@ type RowSource[P any] interface {
 // [SourceWriter.Str] and its code in [SourceWriter.Code]. A step reads and
 // writes the variables of the slots its layout gives it.
 type SourceWriter struct {
-	b      strings.Builder
-	used   map[string]bool
-	indent int
+	b    strings.Builder
+	used map[string]bool
 }
 
 // NewSourceWriter returns an empty writer.
@@ -71,19 +70,12 @@ func (w *SourceWriter) Used(prefix string) []string {
 	return names
 }
 
-// Line writes one statement, formatted as by fmt.Sprintf. A line ending in
-// "{" opens a block and one starting with "}" closes one, for indentation.
+// Line writes one line of the function body, formatted as by fmt.Sprintf;
+// the generator formats the file as gofmt does, so lines need no indent.
 func (w *SourceWriter) Line(format string, args ...any) {
-	s := fmt.Sprintf(format, args...)
-	if strings.HasPrefix(s, "}") || strings.HasPrefix(s, "case ") || strings.HasPrefix(s, "default:") {
-		w.indent--
-	}
-	w.b.WriteString(strings.Repeat("\t", w.indent+1))
-	w.b.WriteString(s)
+	w.b.WriteByte('\t')
+	fmt.Fprintf(&w.b, format, args...)
 	w.b.WriteByte('\n')
-	if strings.HasSuffix(s, "{") || strings.HasPrefix(s, "case ") || strings.HasPrefix(s, "default:") {
-		w.indent++
-	}
 }
 
 // GiveUp writes the statement that abandons the row, for a case the

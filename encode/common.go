@@ -264,7 +264,7 @@ func sourceNames[T any](cols []T, name func(T) string) []string {
 	return out
 }
 
-// tableColumn is one source column of a [tableKernel]: the width output
+// tableColumn is one source column of a [tableStep]: the width output
 // values of each level of the layout, worked out when the kernel is made.
 type tableColumn struct {
 	// values holds width values per layout code; ok says per code whether
@@ -276,26 +276,49 @@ type tableColumn struct {
 	// unseen writes the values of a level the layout does not list into
 	// out and reports whether it has values; it must not allocate.
 	unseen func(level string, out []tabprep.Cell) bool
+	// unseenValues are the values of every unseen level when they do not
+	// depend on the level, or nil.
+	unseenValues []float64
 }
 
-// tableKernel is the row kernel of a step that makes width numeric outputs
-// of each categorical source cell by a table per layout code, as a batch
+// tableStep is the row form of a step that makes width numeric outputs of
+// each categorical source cell by a table per layout code, as a batch
 // transform does per level: fields[i] are the outputs of sources[i], laid
 // out by [arrange], and build returns the table of source i for its layout
 // levels. A cell without values is NaN in every output, or under BadError
 // an error wrapping [ErrBadCell] that says it is not what.
-func tableKernel(op string, l *tabprep.RowLayout, sources []string, fields [][]tabprep.Field, bad OnBad, what string, build func(i int, levels []string) tableColumn) (tabprep.RowFunc, error) {
-	at, levels, to, err := arrange(op, l, sources, tabprep.Categorical, fields)
+type tableStep struct {
+	op      string
+	sources []string
+	fields  [][]tabprep.Field
+	bad     OnBad
+	what    string
+	build   func(i int, levels []string) tableColumn
+}
+
+// tablePlan is one source column of a tableStep, by register slot.
+type tablePlan struct {
+	tableColumn
+	from, to, width int
+}
+
+func (t tableStep) plans(l *tabprep.RowLayout) ([]tablePlan, error) {
+	at, levels, to, err := arrange(t.op, l, t.sources, tabprep.Categorical, t.fields)
 	if err != nil {
 		return nil, err
 	}
-	type plan struct {
-		tableColumn
-		from, to, width int
+	plans := make([]tablePlan, len(t.sources))
+	for i := range t.sources {
+		plans[i] = tablePlan{tableColumn: t.build(i, levels[i]), from: at[i], to: to[i], width: len(t.fields[i])}
 	}
-	plans := make([]plan, len(sources))
-	for i := range sources {
-		plans[i] = plan{tableColumn: build(i, levels[i]), from: at[i], to: to[i], width: len(fields[i])}
+	return plans, nil
+}
+
+// kernel returns the row kernel of the step for rows laid out by l.
+func (t tableStep) kernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	plans, err := t.plans(l)
+	if err != nil {
+		return nil, err
 	}
 	fn := func(regs []tabprep.Cell) error {
 		for i := range plans {
@@ -322,8 +345,8 @@ func tableKernel(op string, l *tabprep.RowLayout, sources []string, fields [][]t
 			if ok {
 				continue
 			}
-			if bad == BadError {
-				return tabprep.Errorf(op, ErrBadCell, sources[i], "%q is not %s; fix the cell, adjust the format options, or set Bad to %q", c.Str, what, BadMissing)
+			if t.bad == BadError {
+				return tabprep.Errorf(t.op, ErrBadCell, t.sources[i], "%q is not %s; fix the cell, adjust the format options, or set Bad to %q", c.Str, t.what, BadMissing)
 			}
 			for j := range out {
 				out[j].Num = math.NaN()
@@ -332,6 +355,51 @@ func tableKernel(op string, l *tabprep.RowLayout, sources []string, fields [][]t
 		return nil
 	}
 	return fn, nil
+}
+
+// source writes what kernel does as Go source, for generated plans: a
+// switch on the level code sets the outputs to constants. A level first met
+// in the row is left to the interpreted plan unless its values are fixed.
+func (t tableStep) source(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	plans, err := t.plans(l)
+	if err != nil {
+		return err
+	}
+	for _, pl := range plans {
+		set := func(values []float64) {
+			for j, v := range values {
+				w.Line("%s = %s", w.Num(pl.to+j), w.Float(v))
+			}
+		}
+		bad := func() {
+			if t.bad == BadError {
+				w.GiveUp()
+				return
+			}
+			for j := range pl.width {
+				w.Line("%s = math.NaN()", w.Num(pl.to+j))
+			}
+		}
+		w.Line("switch %s {", w.Code(pl.from))
+		for k, ok := range pl.ok {
+			w.Line("case %d:", k)
+			if ok {
+				set(pl.values[k*pl.width : (k+1)*pl.width])
+			} else {
+				bad()
+			}
+		}
+		w.Line("case %d:", tabprep.MissingCode)
+		set(pl.missing)
+		w.Line("default:")
+		if pl.unseenValues != nil {
+			set(pl.unseenValues)
+		} else {
+			w.GiveUp()
+		}
+		w.Line("}")
+	}
+	return nil
 }
 
 // numericFields returns, per source, numeric output fields named by names.
@@ -360,5 +428,6 @@ func constTable(levels []string, width int, value func(level string) []float64, 
 		}
 		return true
 	}
+	t.unseenValues = unseen
 	return t
 }

@@ -94,10 +94,18 @@ func (s Frequency) Transform(p FrequencyParams, data *tabprep.Frame) (*tabprep.F
 // [Frequency.Transform], without allocating: the count or share of each
 // level of the layout is looked up by its code in a table made here.
 func (s Frequency) RowKernel(p FrequencyParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.frequency row"
+	return s.table(p).kernel(l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Frequency) RowSource(p FrequencyParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return s.table(p).source(l, w)
+}
+
+func (s Frequency) table(p FrequencyParams) tableStep {
 	sources := sourceNames(p.Columns, func(c FrequencyColumn) string { return c.Name })
 	fields := numericFields(sources, func(s string) []string { return []string{s} })
-	return tableKernel(op, l, sources, fields, BadMissing, "", func(i int, levels []string) tableColumn {
+	return tableStep{op: "encode.frequency row", sources: sources, fields: fields, bad: BadMissing, build: func(i int, levels []string) tableColumn {
 		fc := p.Columns[i]
 		scale := 1.0
 		if s.Share && fc.Rows > 0 {
@@ -114,7 +122,10 @@ func (s Frequency) RowKernel(p FrequencyParams, l *tabprep.RowLayout) (tabprep.R
 			return []float64{float64(n) * scale}
 		}
 		return constTable(levels, 1, value, []float64{float64(fc.Missing) * scale}, []float64{float64(0) * scale})
-	})
+	}}
 }
 
-var _ tabprep.RowKernel[FrequencyParams] = Frequency{}
+var (
+	_ tabprep.RowKernel[FrequencyParams] = Frequency{}
+	_ tabprep.RowSource[FrequencyParams] = Frequency{}
+)

@@ -263,10 +263,29 @@ func (s ParseNumber) Transform(p ParseNumberParams, data *tabprep.Frame) (*tabpr
 // rewritten number of over 32 bytes allocates its copy.
 // A bad cell is missing, or under BadError an error wrapping [ErrBadCell].
 func (s ParseNumber) RowKernel(p ParseNumberParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	t, err := s.table(p)
+	if err != nil {
+		return nil, err
+	}
+	return t.kernel(l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans: the
+// layout's levels become constants, and a text first met in the row is
+// left to the interpreted plan to parse.
+func (s ParseNumber) RowSource(p ParseNumberParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	t, err := s.table(p)
+	if err != nil {
+		return err
+	}
+	return t.source(l, w)
+}
+
+func (s ParseNumber) table(p ParseNumberParams) (tableStep, error) {
 	const op = "encode.parsenumber row"
 	f, err := s.format(op)
 	if err != nil {
-		return nil, err
+		return tableStep{}, err
 	}
 	sources := sourceNames(p.Columns, func(c ParseReport) string { return c.Name })
 	fields := numericFields(sources, func(s string) []string { return []string{s} })
@@ -275,9 +294,12 @@ func (s ParseNumber) RowKernel(p ParseNumberParams, l *tabprep.RowLayout) (tabpr
 		out[0].Num = v
 		return ok
 	}
-	return tableKernel(op, l, sources, fields, s.Bad, "a number in the chosen format", func(_ int, levels []string) tableColumn {
+	return tableStep{op: op, sources: sources, fields: fields, bad: s.Bad, what: "a number in the chosen format", build: func(_ int, levels []string) tableColumn {
 		return parseTable(levels, 1, f.parseInto, unseen)
-	})
+	}}, nil
 }
 
-var _ tabprep.RowKernel[ParseNumberParams] = ParseNumber{}
+var (
+	_ tabprep.RowKernel[ParseNumberParams] = ParseNumber{}
+	_ tabprep.RowSource[ParseNumberParams] = ParseNumber{}
+)

@@ -425,16 +425,33 @@ var _ tabprep.Supervised = Target{}
 // target column is not read: a pipeline keeps it out of the row layout
 // (see [tabprep.Supervised]).
 func (s Target) RowKernel(p TargetParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	t, err := s.table(p)
+	if err != nil {
+		return nil, err
+	}
+	return t.kernel(l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Target) RowSource(p TargetParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	t, err := s.table(p)
+	if err != nil {
+		return err
+	}
+	return t.source(l, w)
+}
+
+func (s Target) table(p TargetParams) (tableStep, error) {
 	const op = "encode.target row"
 	w := len(p.Prior)
 	for _, tc := range p.Columns {
 		if len(tc.Values) != len(tc.Levels)*w || len(tc.Missing) != w {
-			return nil, tabprep.Errorf(op, tabprep.ErrSchema, tc.Name, "parameters hold %d values for %d levels and %d outputs; fit again", len(tc.Values), len(tc.Levels), w)
+			return tableStep{}, tabprep.Errorf(op, tabprep.ErrSchema, tc.Name, "parameters hold %d values for %d levels and %d outputs; fit again", len(tc.Values), len(tc.Levels), w)
 		}
 	}
 	sources := sourceNames(p.Columns, func(c TargetColumn) string { return c.Name })
 	fields := numericFields(sources, p.names)
-	return tableKernel(op, l, sources, fields, BadMissing, "", func(i int, levels []string) tableColumn {
+	return tableStep{op: op, sources: sources, fields: fields, bad: BadMissing, build: func(i int, levels []string) tableColumn {
 		tc := p.Columns[i]
 		index := indexOf(tc.Levels)
 		value := func(level string) []float64 {
@@ -444,7 +461,10 @@ func (s Target) RowKernel(p TargetParams, l *tabprep.RowLayout) (tabprep.RowFunc
 			return p.Prior
 		}
 		return constTable(levels, w, value, tc.Missing, p.Prior)
-	})
+	}}, nil
 }
 
-var _ tabprep.RowKernel[TargetParams] = Target{}
+var (
+	_ tabprep.RowKernel[TargetParams] = Target{}
+	_ tabprep.RowSource[TargetParams] = Target{}
+)

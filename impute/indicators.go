@@ -94,21 +94,8 @@ func (s Indicators) Transform(p IndicatorParams, data *tabprep.Frame) (*tabprep.
 // RowKernel returns the indicators of p for single rows laid out by l;
 // the indicator columns are appended.
 func (s Indicators) RowKernel(p IndicatorParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "impute.indicators row"
-	from := make([]int, len(p.Columns))
-	numeric := make([]bool, len(p.Columns))
-	for j, ind := range p.Columns {
-		k, f, ok := l.Slot(ind.Source)
-		if !ok {
-			return nil, tabprep.Errorf(op, tabprep.ErrSchema, ind.Source, "fitted on this column but the row layout lacks it")
-		}
-		from[j], numeric[j] = k, f.Kind == tabprep.Numeric
-	}
-	to := make([]int, len(p.Columns))
-	for j, ind := range p.Columns {
-		to[j] = l.Add(tabprep.Field{Name: ind.Name, Kind: tabprep.Numeric})
-	}
-	if err := l.Schema().Validate(); err != nil {
+	from, numeric, to, err := indicatorSlots(p, l)
+	if err != nil {
 		return nil, err
 	}
 	fn := func(regs []tabprep.Cell) error {
@@ -123,4 +110,48 @@ func (s Indicators) RowKernel(p IndicatorParams, l *tabprep.RowLayout) (tabprep.
 		return nil
 	}
 	return fn, nil
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Indicators) RowSource(p IndicatorParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	from, numeric, to, err := indicatorSlots(p, l)
+	if err != nil {
+		return err
+	}
+	for j, k := range from {
+		out := w.Num(to[j])
+		w.Line("%s = 0", out)
+		if numeric[j] {
+			w.Line("if %s != %s {", w.Num(k), w.Num(k))
+		} else {
+			w.Line("if %s == %d {", w.Code(k), tabprep.MissingCode)
+		}
+		w.Line("%s = 1", out)
+		w.Line("}")
+	}
+	return nil
+}
+
+// indicatorSlots records the indicator columns of p in l and returns the
+// slot of each source, whether it is numeric, and the slot of its
+// indicator.
+func indicatorSlots(p IndicatorParams, l *tabprep.RowLayout) (from []int, numeric []bool, to []int, err error) {
+	const op = "impute.indicators row"
+	from = make([]int, len(p.Columns))
+	numeric = make([]bool, len(p.Columns))
+	for j, ind := range p.Columns {
+		k, f, ok := l.Slot(ind.Source)
+		if !ok {
+			return nil, nil, nil, tabprep.Errorf(op, tabprep.ErrSchema, ind.Source, "fitted on this column but the row layout lacks it")
+		}
+		from[j], numeric[j] = k, f.Kind == tabprep.Numeric
+	}
+	to = make([]int, len(p.Columns))
+	for j, ind := range p.Columns {
+		to[j] = l.Add(tabprep.Field{Name: ind.Name, Kind: tabprep.Numeric})
+	}
+	if err := l.Schema().Validate(); err != nil {
+		return nil, nil, nil, err
+	}
+	return from, numeric, to, nil
 }

@@ -74,12 +74,24 @@ func (s DropSparse) Transform(p SparseParams, data *tabprep.Frame) (*tabprep.Fra
 // RowKernel returns the column filter of p for single rows laid out by l:
 // the dropped columns leave the layout, and no cell moves.
 func (s DropSparse) RowKernel(p SparseParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
+	if err := dropSparse(p, l); err != nil {
+		return nil, err
+	}
+	return func([]tabprep.Cell) error { return nil }, nil
+}
+
+// RowSource records the column filter in l; it takes no code.
+func (s DropSparse) RowSource(p SparseParams, l *tabprep.RowLayout, _ *tabprep.SourceWriter) error {
+	return dropSparse(p, l)
+}
+
+func dropSparse(p SparseParams, l *tabprep.RowLayout) error {
 	const op = "impute.dropsparse row"
 	for _, name := range p.Dropped {
 		if _, _, ok := l.Slot(name); !ok {
-			return nil, tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted to drop this column but the row layout lacks it")
+			return tabprep.Errorf(op, tabprep.ErrSchema, name, "fitted to drop this column but the row layout lacks it")
 		}
 		l.Remove(name)
 	}
-	return func([]tabprep.Cell) error { return nil }, nil
+	return nil
 }

@@ -100,6 +100,37 @@ func ExampleFitted_Compile() {
 
 // Stream transforms CSV chunk by chunk, so the input can be larger than
 // memory.
+// A scoring service that needs the lowest latency generates its plan as Go
+// source once (a go:generate command, say), compiles the file into the
+// program and hands it to CompileWith; rows then run through plain Go code
+// with the fitted numbers as constants.
+func ExampleFitted_WriteGo() {
+	train := tabprep.MustFrame(
+		tabprep.NewCategorical("species", []string{"dog", "cat", "dog", "rabbit"}),
+		tabprep.NewNumeric("pet_age", []float64{3, math.NaN(), 9, 2}),
+	)
+	fitted, err := pipeline.New(
+		pipeline.Use(impute.Mean{}),
+		pipeline.Use(encode.OneHot{}),
+	).Fit(train)
+	if err != nil {
+		log.Fatal(err)
+	}
+	var src bytes.Buffer
+	if err := fitted.WriteGo(&src, pipeline.GoOptions{Package: "petplan"}); err != nil {
+		log.Fatal(err)
+	}
+	for _, line := range strings.Split(src.String(), "\n") {
+		if strings.Contains(line, "n1 = 4.") || strings.HasPrefix(line, "var Plan") || strings.Contains(line, `case "cat"`) {
+			fmt.Println(strings.TrimSpace(line))
+		}
+	}
+	// Output:
+	// var Plan = pipeline.Generated{
+	// case "cat":
+	// n1 = 4.666666666666667
+}
+
 func ExampleFitted_Stream() {
 	train := tabprep.MustFrame(tabprep.NewNumeric("days_ahead", []float64{2, 4, 6}))
 	fitted, err := pipeline.New(pipeline.Use(scale.ZScore{})).Fit(train)

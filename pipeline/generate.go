@@ -6,6 +6,7 @@ import (
 	"encoding/hex"
 	"fmt"
 	"go/format"
+	"go/token"
 	"io"
 	"slices"
 	"strings"
@@ -29,15 +30,33 @@ type Generated struct {
 	ApplyFloats func(dst []float64, src []tabprep.Cell) bool
 }
 
-// WriteGo writes the row plan of f as a Go source file of package pkg,
-// gofmt-formatted. The file declares a variable Plan of type [Generated]
-// to pass to [Fitted.CompileWith]. Every output column must be numeric,
-// and every step must have a source form ([tabprep.RowSource]); the error
-// names the first step that has none.
+// GoOptions says how [Fitted.WriteGo] names what it writes.
+type GoOptions struct {
+	// Package is the package clause of the file; it is required.
+	Package string
+	// Name is the name of the [Generated] variable the file declares;
+	// empty means "Plan". Distinct names let one package hold several
+	// generated plans.
+	Name string
+}
+
+// WriteGo writes the row plan of f as a gofmt-formatted Go source file
+// that declares a [Generated] variable, to pass to [Fitted.CompileWith].
+// Every output column must be numeric, and every step must have a source
+// form ([tabprep.RowSource]); the error names the first step that has none.
 //
 // Regenerate the file whenever the pipeline is refitted: CompileWith
 // refuses code generated from other parameters.
-func (f *Fitted) WriteGo(w io.Writer, pkg string) error {
+func (f *Fitted) WriteGo(w io.Writer, opt GoOptions) error {
+	if !token.IsIdentifier(opt.Package) {
+		return fmt.Errorf("pipeline: generate: package name %q is not a Go identifier", opt.Package)
+	}
+	if opt.Name == "" {
+		opt.Name = "Plan"
+	}
+	if !token.IsIdentifier(opt.Name) || !token.IsExported(opt.Name) {
+		return fmt.Errorf("pipeline: generate: variable name %q is not an exported Go identifier", opt.Name)
+	}
 	body, err := f.rowSource()
 	if err != nil {
 		return err
@@ -54,19 +73,20 @@ import (
 	"github.com/tabprep/tabprep/pipeline"
 )
 
-// Plan is the generated row plan of a fitted pipeline with input columns
+// %s is the generated row plan of a fitted pipeline with input columns
 // %s
 // and output columns
 // %s.
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
-var Plan = pipeline.Generated{
+var %s = pipeline.Generated{
 	Digest:      %q,
-	ApplyFloats: applyFloats,
+	ApplyFloats: apply%s,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
-`, pkg, strings.Join(f.input.Names(), ", "), strings.Join(f.output.Names(), ", "), digest(body))
+`, opt.Package, opt.Name, strings.Join(f.input.Names(), ", "), strings.Join(f.output.Names(), ", "), opt.Name, digest(body), opt.Name)
+	b.WriteString("func apply" + opt.Name)
 	b.WriteString(body)
 	src, err := format.Source(b.Bytes())
 	if err != nil {
@@ -91,9 +111,12 @@ func (f *Fitted) CompileWith(g Generated) (*Plan, error) {
 	if err != nil {
 		return nil, err
 	}
-	if d := digest(body); g.Digest != d || g.ApplyFloats == nil {
-		return nil, fmt.Errorf("pipeline: compile: %w: the generated plan %s was not generated from this fitted pipeline (%s); regenerate it with Fitted.WriteGo",
+	if d := digest(body); g.Digest != d {
+		return nil, fmt.Errorf("pipeline: compile: %w: the generated plan has digest %q, but this fitted pipeline generates %q: it was generated from other steps or parameters; regenerate it with Fitted.WriteGo",
 			tabprep.ErrSchema, g.Digest, d)
+	}
+	if g.ApplyFloats == nil {
+		return nil, fmt.Errorf("pipeline: compile: %w: the generated plan has no ApplyFloats function; pass the variable Fitted.WriteGo declares", tabprep.ErrSchema)
 	}
 	p.gen = g.ApplyFloats
 	return p, nil
@@ -104,7 +127,9 @@ func digest(body string) string {
 	return "sha256:" + hex.EncodeToString(sum[:])
 }
 
-// rowSource returns the source of the generated function: every slot of
+// rowSource returns the source of the generated function from its
+// parameter list on (so that the digest does not depend on its name):
+// every slot of
 // the register file is a local variable, each categorical input is coded
 // by a switch on its level, and each step writes its own statements.
 func (f *Fitted) rowSource() (string, error) {
@@ -151,7 +176,7 @@ func (f *Fitted) rowSource() (string, error) {
 	w.Line("return true")
 
 	var b strings.Builder
-	b.WriteString("func applyFloats(dst []float64, src []tabprep.Cell) bool {\n")
+	b.WriteString("(dst []float64, src []tabprep.Cell) bool {\n")
 	fmt.Fprintf(&b, "\tif len(src) != %d || len(dst) != %d {\n\t\treturn false\n\t}\n", len(f.input.Columns), len(f.output.Columns))
 	for _, kind := range []struct{ prefix, typ string }{{"n", "float64"}, {"s", "string"}, {"c", "int32"}} {
 		if names := w.Used(kind.prefix); len(names) > 0 {

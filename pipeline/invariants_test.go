@@ -16,6 +16,7 @@ import (
 	"github.com/tabprep/tabprep/encode"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
 	"github.com/tabprep/tabprep/impute"
+	"github.com/tabprep/tabprep/internal/sourcetest"
 	"github.com/tabprep/tabprep/internal/steptest"
 	"github.com/tabprep/tabprep/pipeline"
 	"github.com/tabprep/tabprep/scale"
@@ -29,10 +30,14 @@ type stepCase struct {
 	stage pipeline.Stage
 	fit   func(*tabprep.Frame) error // the step's own Fit, called directly
 	drops bool                       // documented to drop rows
+	// source says whether the step has a Go source form, for generated
+	// plans; package internal/sourcetest checks those.
+	source bool
 }
 
 func caseOf[S tabprep.Step[P], P any](s S) stepCase {
-	return stepCase{stage: pipeline.Use(s), fit: func(f *tabprep.Frame) error { _, err := s.Fit(f); return err }}
+	_, source := any(s).(tabprep.RowSource[P])
+	return stepCase{stage: pipeline.Use(s), fit: func(f *tabprep.Frame) error { _, err := s.Fit(f); return err }, source: source}
 }
 
 func builtinCases() []stepCase {
@@ -109,10 +114,13 @@ func invariantData(t *testing.T) (tagged, train, test *tabprep.Frame) {
 func TestEveryStepKeepsTheInvariants(t *testing.T) {
 	tagged, train, test := invariantData(t)
 	covered := map[string]bool{}
-	var noKernel []string
+	var noKernel, sources []string
 	for _, c := range builtinCases() {
 		kind := c.stage.Kind()
 		covered[kind] = true
+		if c.source {
+			sources = append(sources, kind)
+		}
 		t.Run(kind, func(t *testing.T) {
 			// 1. No fit reads a holdout row, called directly or through a
 			// pipeline.
@@ -165,4 +173,7 @@ func TestEveryStepKeepsTheInvariants(t *testing.T) {
 	// Only the steps that need other rows to fill one have no row kernel.
 	slices.Sort(noKernel)
 	require.Equal(t, []string{"impute.carrybackward", "impute.carryforward", "impute.droprows", "impute.interpolate"}, noKernel)
+	// Every step with a Go source form has a generated plan checked against
+	// the interpreted one.
+	require.ElementsMatch(t, sources, sourcetest.Kinds(), "a step with a Go source form needs a case in internal/sourcetest, and only those")
 }

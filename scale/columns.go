@@ -172,6 +172,7 @@ type mapper struct {
 	domain  string   // the accepted values, for errors
 	lenient bool     // out-of-domain values become missing
 	strict  bool     // the step has no OutOfDomain option to suggest
+	source  string   // every func as a Go function name, if it has one, for generated plans
 }
 
 func outside(x, y float64) bool {
@@ -300,14 +301,32 @@ func (m *mapper) rowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 }
 
 // rowSource writes what rowKernel does as Go source, for generated plans;
-// only affine maps have a source form.
+// affine maps and funcs with a Go name have one.
 func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	if m.linear == nil {
-		return tabprep.Errorf(m.op, tabprep.ErrOption, "", "only affine maps have a Go source form; use the interpreted plan")
+	if m.linear == nil && m.source == "" {
+		return tabprep.Errorf(m.op, tabprep.ErrOption, "", "the step's maps have no Go source form; use the interpreted plan")
 	}
 	slots, err := m.slots(l)
 	if err != nil {
 		return err
+	}
+	if m.linear == nil {
+		// What rowKernel does with funcs: a value outside the domain is
+		// missing when lenient, and otherwise an error, which the generated
+		// code leaves to the interpreted plan.
+		for _, k := range slots {
+			n := w.Num(k)
+			w.Line("if y := %s(%s); %s == %s && (y != y || (math.IsInf(y, 0) && !math.IsInf(%s, 0))) {", m.source, n, n, n, n)
+			if m.lenient {
+				w.Line("%s = math.NaN()", n)
+			} else {
+				w.GiveUp()
+			}
+			w.Line("} else {")
+			w.Line("%s = y", n)
+			w.Line("}")
+		}
+		return nil
 	}
 	// The same expressions as rowKernel's, in the same order, so the bits
 	// agree.

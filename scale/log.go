@@ -54,11 +54,12 @@ func (Log1p) Kind() string { return "scale.log1p" }
 type logFamily struct {
 	forward, backward func(float64) float64
 	domain, range_    string
+	source            string // forward as a Go function name, for generated plans
 }
 
 var (
-	natural = logFamily{math.Log, math.Exp, "log needs x > 0", "exp overflows above 709.78"}
-	plusOne = logFamily{math.Log1p, math.Expm1, "log1p needs x > −1", "expm1 overflows above 709.78"}
+	natural = logFamily{math.Log, math.Exp, "log needs x > 0", "exp overflows above 709.78", "math.Log"}
+	plusOne = logFamily{math.Log1p, math.Expm1, "log1p needs x > −1", "expm1 overflows above 709.78", "math.Log1p"}
 )
 
 func fitLog(kind string, fam logFamily, sel tabprep.Selection, rule DomainRule, train *tabprep.Frame) (LogParams, error) {
@@ -90,6 +91,8 @@ func (p LogParams) mapperOf(fam logFamily, op string, inverse bool) (*mapper, er
 	f := fam.forward
 	if inverse {
 		f, m.domain = fam.backward, fam.range_
+	} else {
+		m.source = fam.source
 	}
 	for j := range m.funcs {
 		m.funcs[j] = f
@@ -130,6 +133,11 @@ func (s Log) RowKernel(p LogParams, l *tabprep.RowLayout) (tabprep.RowFunc, erro
 	return rowKernel(s.Kind(), logOf(p), l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Log) RowSource(p LogParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), logOf(p), l, w)
+}
+
 // Fit checks the chosen columns of train: each must have a value, and every
 // value must be in the domain (x > −1) unless OutOfDomain is DomainMissing.
 func (s Log1p) Fit(train *tabprep.Frame) (LogParams, error) {
@@ -149,6 +157,11 @@ func (s Log1p) Inverse(p LogParams, data *tabprep.Frame) (*tabprep.Frame, error)
 // RowKernel returns ln(1 + x) of one row, for rows laid out by l.
 func (s Log1p) RowKernel(p LogParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return rowKernel(s.Kind(), log1pOf(p), l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Log1p) RowSource(p LogParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), log1pOf(p), l, w)
 }
 
 var (

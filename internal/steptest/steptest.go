@@ -6,6 +6,8 @@ package steptest
 import (
 	"bytes"
 	"math"
+	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -188,4 +190,34 @@ func MatchGenerated(t testing.TB, fitted *pipeline.Fitted, g pipeline.Generated,
 		}
 	}
 	return failed
+}
+
+// Perturbed returns n rows of data picked by rng, each with one cell
+// changed to a value a serving row may bring: a gap, an infinity, a signed
+// zero or an extreme number in a numeric column; in a categorical one, a
+// missing cell, a level never seen in training or a near miss of a seen
+// one.
+func Perturbed(rng *rand.Rand, data *tabprep.Frame, n int) [][]tabprep.Cell {
+	odd := []float64{math.NaN(), math.Inf(1), math.Inf(-1), 0, math.Copysign(0, -1), 1e308, -5e-324, -1, 1e9}
+	rows := make([][]tabprep.Cell, n)
+	for i := range rows {
+		row := Row(data, rng.IntN(data.NumRows()))
+		j := rng.IntN(len(row))
+		if data.Col(j).Kind() == tabprep.Numeric {
+			row[j].Num = odd[rng.IntN(len(odd))]
+		} else {
+			switch rng.IntN(4) {
+			case 0:
+				row[j].Str = ""
+			case 1:
+				row[j].Str = "ferret"
+			case 2:
+				row[j].Str += " "
+			default:
+				row[j].Str = strings.ToUpper(row[j].Str)
+			}
+		}
+		rows[i] = row
+	}
+	return rows
 }

@@ -13,6 +13,7 @@ import (
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
 	"github.com/tabprep/tabprep/examples/quickstart/demodata/demoplan"
 	"github.com/tabprep/tabprep/internal/steptest"
+	"github.com/tabprep/tabprep/pipeline"
 )
 
 // TestUpToDate guards that plan.go is what the generator writes today.
@@ -20,7 +21,7 @@ func TestUpToDate(t *testing.T) {
 	fitted, _, err := demodata.Serving()
 	require.NoError(t, err)
 	var b bytes.Buffer
-	require.NoError(t, fitted.WriteGo(&b, "demoplan"))
+	require.NoError(t, fitted.WriteGo(&b, pipeline.GoOptions{Package: "demoplan"}))
 	onDisk, err := os.ReadFile("plan.go")
 	require.NoError(t, err)
 	require.Equal(t, b.String(), string(onDisk), "plan.go is stale: run go generate in this directory")
@@ -38,19 +39,7 @@ func TestMatchesInterpreted(t *testing.T) {
 	for i := range data.NumRows() {
 		rows = append(rows, steptest.Row(data, i))
 	}
-	rng := rand.New(rand.NewPCG(7, 8))
-	odd := []float64{math.NaN(), math.Inf(1), math.Inf(-1), 0, math.Copysign(0, -1), 1e308, -5e-324}
-	strs := []string{"", "ferret", "Hillcrest ", "CAT"}
-	for range data.NumRows() {
-		row := steptest.Row(data, rng.IntN(data.NumRows()))
-		j := rng.IntN(len(row))
-		if data.Col(j).Kind() == tabprep.Numeric {
-			row[j].Num = odd[rng.IntN(len(odd))]
-		} else {
-			row[j].Str = strs[rng.IntN(len(strs))]
-		}
-		rows = append(rows, row)
-	}
+	rows = append(rows, steptest.Perturbed(rand.New(rand.NewPCG(7, 8)), data, data.NumRows())...)
 	failed := steptest.MatchGenerated(t, fitted, demoplan.Plan, rows)
 	// An unseen or missing visit_type is an error (the ordinal step has no
 	// fallback codes), so some rows must have taken that path.

@@ -15,13 +15,13 @@ import (
 // visit_type, days_ahead, pet_age, distance_km, prior_no_shows, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, reminder=email, reminder=none, reminder=phone, reminder=sms.
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Plan = pipeline.Generated{
-	Digest:      "sha256:0938e032eab05856ee39707b56e6f3d32831c5468e908f6ec73d1d3b9686e58a",
-	ApplyFloats: applyFloats,
+	Digest:      "sha256:910da95a069b2bad7dba6c964495fcc3255ece09f80f867064dfa9aab3ccfd30",
+	ApplyFloats: applyPlan,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
-func applyFloats(dst []float64, src []tabprep.Cell) bool {
+func applyPlan(dst []float64, src []tabprep.Cell) bool {
 	if len(src) != 8 || len(dst) != 19 {
 		return false
 	}

@@ -8,6 +8,7 @@ import (
 	"os"
 
 	"github.com/tabprep/tabprep/examples/quickstart/demodata"
+	"github.com/tabprep/tabprep/pipeline"
 )
 
 func main() {
@@ -16,7 +17,7 @@ func main() {
 		log.Fatal(err)
 	}
 	var b bytes.Buffer
-	if err := fitted.WriteGo(&b, "demoplan"); err != nil {
+	if err := fitted.WriteGo(&b, pipeline.GoOptions{Package: "demoplan"}); err != nil {
 		log.Fatal(err)
 	}
 	if err := os.WriteFile("plan.go", b.Bytes(), 0o644); err != nil {
