@@ -18,6 +18,12 @@
 //     same bits as Transform. [Plan.TransformInto] scores a batch into a
 //     matrix the caller owns; a [Runner] gives a scoring loop its own
 //     registers.
+//   - [Fitted.WriteGo] writes the plan as Go source, with the fitted
+//     numbers and levels as constants and switches, and
+//     [Fitted.CompileWith] runs that code, compiled into the program, in
+//     place of the interpreted plan: several times faster per row, with
+//     the same bits and errors (a row the code cannot finish goes through
+//     the interpreted plan).
 //   - [Fitted.Stream] transforms CSV larger than memory, chunk by chunk.
 //
 // # Saving

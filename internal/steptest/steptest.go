@@ -155,9 +155,12 @@ func RoundTrip(t testing.TB, stage pipeline.Stage, train, data *tabprep.Frame) *
 // MatchGenerated compiles fitted twice, as the interpreted plan and with
 // the generated code g, and requires that every row of rows gives the same
 // error, or none, and the same values bit for bit through both, by
-// Plan.ApplyFloats and Runner.ApplyFloats. It also requires that g is refused once the pipeline's parameters differ
-// from those it was generated from (g with another digest). It returns the
-// number of rows that gave an error.
+// Plan.ApplyFloats and Runner.ApplyFloats, and that a row the generated
+// code finishes allocates nothing outside the race detector. It also
+// requires that g is refused once the pipeline's parameters differ
+// from those it was generated from (g with another digest), and that the
+// generated code finishes some of the rows itself. It returns the number of
+// rows that gave an error.
 func MatchGenerated(t testing.TB, fitted *pipeline.Fitted, g pipeline.Generated, rows [][]tabprep.Cell) (failed int) {
 	t.Helper()
 	interp, err := fitted.Compile()
@@ -172,6 +175,7 @@ func MatchGenerated(t testing.TB, fitted *pipeline.Fitted, g pipeline.Generated,
 	w := interp.OutputWidth()
 	want, got := make([]float64, w), make([]float64, w)
 	run := gen.Runner()
+	finished := 0
 	for i, row := range rows {
 		werr := interp.ApplyFloats(want, row)
 		gerr := gen.ApplyFloats(got, row)
@@ -184,11 +188,18 @@ func MatchGenerated(t testing.TB, fitted *pipeline.Fitted, g pipeline.Generated,
 		}
 		require.NoError(t, gerr, "row %d", i)
 		require.NoError(t, rerr, "row %d", i)
+		if g.ApplyFloats(got, row) {
+			finished++
+			if !raceEnabled {
+				require.Zero(t, testing.AllocsPerRun(5, func() { _ = gen.ApplyFloats(got, row) }), "row %d allocates", i)
+			}
+		}
 		for j := range want {
 			require.Equal(t, math.Float64bits(want[j]), math.Float64bits(got[j]),
 				"row %d column %s: interpreted %v, generated %v", i, interp.Output().Columns[j].Name, want[j], got[j])
 		}
 	}
+	require.Positive(t, finished, "the generated code finished no row")
 	return failed
 }
 

@@ -2,9 +2,11 @@ package demoplan_test
 
 import (
 	"bytes"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"os"
+	"sync"
 	"testing"
 
 	"github.com/stretchr/testify/require"
@@ -72,4 +74,43 @@ func TestRefusesOtherFit(t *testing.T) {
 	_, err = refit.CompileWith(demoplan.Plan)
 	require.ErrorIs(t, err, tabprep.ErrSchema)
 	require.ErrorContains(t, err, "regenerate it with Fitted.WriteGo")
+}
+
+// TestConcurrent shares one plan with generated code among 64 goroutines,
+// each checking its rows against values worked out beforehand; run it
+// under -race.
+func TestConcurrent(t *testing.T) {
+	fitted, data, err := demodata.Serving()
+	require.NoError(t, err)
+	interp, err := fitted.Compile()
+	require.NoError(t, err)
+	gen, err := fitted.CompileWith(demoplan.Plan)
+	require.NoError(t, err)
+	w := interp.OutputWidth()
+	want := make([]float64, data.NumRows()*w)
+	require.NoError(t, interp.TransformInto(want, data))
+	var wg sync.WaitGroup
+	errs := make(chan error, 64)
+	for g := range 64 {
+		wg.Go(func() {
+			dst := make([]float64, w)
+			for i := g; i < data.NumRows(); i += 8 {
+				if err := gen.ApplyFloats(dst, steptest.Row(data, i)); err != nil {
+					errs <- err
+					return
+				}
+				for j, v := range dst {
+					if math.Float64bits(v) != math.Float64bits(want[i*w+j]) {
+						errs <- fmt.Errorf("row %d column %d: %v, want %v", i, j, v, want[i*w+j])
+						return
+					}
+				}
+			}
+		})
+	}
+	wg.Wait()
+	close(errs)
+	for err := range errs {
+		t.Error(err)
+	}
 }
