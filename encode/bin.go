@@ -201,19 +201,7 @@ func binOf(cuts []float64, v float64) int {
 // [Bin.Transform], without allocating: a bin index with Codes, or else the
 // bin's interval level and its code in the output layout.
 func (s Bin) RowKernel(p BinParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.bin row"
-	sources := sourceNames(p.Columns, func(c BinColumn) string { return c.Name })
-	fields := make([][]tabprep.Field, len(p.Columns))
-	levels := make([][]string, len(p.Columns))
-	for i, bc := range p.Columns {
-		f := tabprep.Field{Name: bc.Name, Kind: tabprep.Numeric}
-		if !s.Codes {
-			levels[i] = bc.Levels()
-			f = tabprep.Field{Name: bc.Name, Kind: tabprep.Categorical, Levels: levels[i]}
-		}
-		fields[i] = []tabprep.Field{f}
-	}
-	at, _, _, err := arrange(op, l, sources, tabprep.Numeric, fields)
+	at, levels, err := s.rows(p, l)
 	if err != nil {
 		return nil, err
 	}
@@ -238,4 +226,70 @@ func (s Bin) RowKernel(p BinParams, l *tabprep.RowLayout) (tabprep.RowFunc, erro
 	return fn, nil
 }
 
-var _ tabprep.RowKernel[BinParams] = Bin{}
+// RowSource writes the row kernel as Go source, for generated plans: a
+// chain of comparisons with the cuts, which gives what binOf's search does
+// because the cuts ascend.
+func (s Bin) RowSource(p BinParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	at, levels, err := s.rows(p, l)
+	if err != nil {
+		return err
+	}
+	for i, bc := range p.Columns {
+		if !slices.IsSorted(bc.Cuts) {
+			return tabprep.Errorf("encode.bin row", tabprep.ErrOption, bc.Name, "cuts do not ascend; refit the step")
+		}
+		k := at[i]
+		n := w.Num(k)
+		set := func(b int) {
+			if s.Codes {
+				w.Line("%s = %d", n, b)
+			} else {
+				w.Line("%s, %s = %s, %d", w.Str(k), w.Code(k), w.Quote(levels[i][b]), b)
+			}
+		}
+		if s.Codes {
+			w.Line("if %s == %s {", n, n)
+		} else {
+			w.Line("if %s != %s {", n, n)
+			w.Line("%s, %s = \"\", %d", w.Str(k), w.Code(k), tabprep.MissingCode)
+			w.Line("} else {")
+		}
+		w.Line("switch {")
+		for b, cut := range bc.Cuts {
+			w.Line("case %s < %s:", n, w.Float(cut))
+			set(b)
+		}
+		w.Line("default:")
+		set(len(bc.Cuts))
+		w.Line("}")
+		w.Line("}")
+	}
+	return nil
+}
+
+// rows records the step's columns in l and returns their slots and, unless
+// the step writes codes, the interval levels of each.
+func (s Bin) rows(p BinParams, l *tabprep.RowLayout) (at []int, levels [][]string, err error) {
+	const op = "encode.bin row"
+	sources := sourceNames(p.Columns, func(c BinColumn) string { return c.Name })
+	fields := make([][]tabprep.Field, len(p.Columns))
+	levels = make([][]string, len(p.Columns))
+	for i, bc := range p.Columns {
+		f := tabprep.Field{Name: bc.Name, Kind: tabprep.Numeric}
+		if !s.Codes {
+			levels[i] = bc.Levels()
+			f = tabprep.Field{Name: bc.Name, Kind: tabprep.Categorical, Levels: levels[i]}
+		}
+		fields[i] = []tabprep.Field{f}
+	}
+	at, _, _, err = arrange(op, l, sources, tabprep.Numeric, fields)
+	if err != nil {
+		return nil, nil, err
+	}
+	return at, levels, nil
+}
+
+var (
+	_ tabprep.RowKernel[BinParams] = Bin{}
+	_ tabprep.RowSource[BinParams] = Bin{}
+)

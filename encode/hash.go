@@ -152,35 +152,20 @@ func (s Hash) Transform(p HashParams, data *tabprep.Frame) (*tabprep.Frame, erro
 // of the layout are hashed here, and a level the layout does not list is
 // hashed in the row (the hash reads the string's bytes in place).
 func (s Hash) RowKernel(p HashParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	const op = "encode.hash row"
-	if err := s.check(op, p); err != nil {
-		return nil, err
-	}
-	at, levels, to, err := arrange(op, l, p.Columns, tabprep.Categorical, numericFields(p.Columns, p.names))
+	plans, err := s.rows(p, l)
 	if err != nil {
 		return nil, err
 	}
-	type plan struct {
-		bucket []int
-		sign   []float64
-	}
-	plans := make([]plan, len(p.Columns))
-	for i := range plans {
-		pl := plan{bucket: make([]int, len(levels[i])), sign: make([]float64, len(levels[i]))}
-		for k, lv := range levels[i] {
-			pl.bucket[k], pl.sign[k] = bucketOf(p.Seed, lv, p.Buckets)
-		}
-		plans[i] = pl
-	}
 	fn := func(regs []tabprep.Cell) error {
 		for i := range plans {
-			c := &regs[at[i]]
-			out := regs[to[i] : to[i]+p.Buckets]
+			pl := &plans[i]
+			c := &regs[pl.from]
+			out := regs[pl.to : pl.to+p.Buckets]
 			var b int
 			var sign float64
 			switch {
 			case c.Code >= 0:
-				b, sign = plans[i].bucket[c.Code], plans[i].sign[c.Code]
+				b, sign = pl.bucket[c.Code], pl.sign[c.Code]
 			case c.Code == tabprep.UnseenCode:
 				b, sign = bucketOf(p.Seed, c.Str, p.Buckets)
 			}
@@ -195,4 +180,61 @@ func (s Hash) RowKernel(p HashParams, l *tabprep.RowLayout) (tabprep.RowFunc, er
 	return fn, nil
 }
 
-var _ tabprep.RowKernel[HashParams] = Hash{}
+// RowSource writes the row kernel as Go source, for generated plans: the
+// layout's levels have their buckets as constants, and a level first met in
+// the row is left to the interpreted plan to hash.
+func (s Hash) RowSource(p HashParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	plans, err := s.rows(p, l)
+	if err != nil {
+		return err
+	}
+	for _, pl := range plans {
+		for j := range p.Buckets {
+			w.Line("%s = 0", w.Num(pl.to+j))
+		}
+		w.Line("switch %s {", w.Code(pl.from))
+		for k, b := range pl.bucket {
+			w.Line("case %d:", k)
+			w.Line("%s = %s", w.Num(pl.to+b), w.Float(pl.sign[k]))
+		}
+		// A missing cell leaves every output 0.
+		w.Line("case %d:", tabprep.MissingCode)
+		w.Line("default:")
+		w.GiveUp()
+		w.Line("}")
+	}
+	return nil
+}
+
+// hashRow is one fitted column of a hash step, by register slot, with the
+// bucket and sign of each layout level.
+type hashRow struct {
+	from, to int
+	bucket   []int
+	sign     []float64
+}
+
+func (s Hash) rows(p HashParams, l *tabprep.RowLayout) ([]hashRow, error) {
+	const op = "encode.hash row"
+	if err := s.check(op, p); err != nil {
+		return nil, err
+	}
+	at, levels, to, err := arrange(op, l, p.Columns, tabprep.Categorical, numericFields(p.Columns, p.names))
+	if err != nil {
+		return nil, err
+	}
+	plans := make([]hashRow, len(p.Columns))
+	for i := range plans {
+		pl := hashRow{from: at[i], to: to[i], bucket: make([]int, len(levels[i])), sign: make([]float64, len(levels[i]))}
+		for k, lv := range levels[i] {
+			pl.bucket[k], pl.sign[k] = bucketOf(p.Seed, lv, p.Buckets)
+		}
+		plans[i] = pl
+	}
+	return plans, nil
+}
+
+var (
+	_ tabprep.RowKernel[HashParams] = Hash{}
+	_ tabprep.RowSource[HashParams] = Hash{}
+)

@@ -287,6 +287,17 @@ func (s Chained) Transform(p ChainedParams, data *tabprep.Frame) (*tabprep.Frame
 
 // RowKernel returns the fill of p for single rows laid out by l. It gives
 // the same cells as Transform, since Transform fills each row on its own.
+// RowSource writes the row kernel as Go source, for generated plans: a row
+// with no gap in the fitted columns passes unchanged, and one with a gap is
+// left to the interpreted plan.
+func (s Chained) RowSource(p ChainedParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	const op = "impute.chained row"
+	if err := p.check(op); err != nil {
+		return err
+	}
+	return gapsGiveUp(op, p.Columns, l, w)
+}
+
 func (s Chained) RowKernel(p ChainedParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "impute.chained row"
 	if err := p.check(op); err != nil {

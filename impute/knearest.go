@@ -297,6 +297,17 @@ func siftDown(h []neighbour, i int) {
 // heap of k) comes from a pool the kernel keeps, so a row allocates nothing
 // once the pool holds one per goroutine; the cost per row with a gap is
 // that of Transform, O(Rows·P + Rows·log K).
+// RowSource writes the row kernel as Go source, for generated plans: a row
+// with no gap in the fitted columns passes unchanged, and one with a gap is
+// left to the interpreted plan.
+func (s KNearest) RowSource(p KNearestParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	const op = "impute.knearest row"
+	if err := p.check(op); err != nil {
+		return err
+	}
+	return gapsGiveUp(op, p.Columns, l, w)
+}
+
 func (s KNearest) RowKernel(p KNearestParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	const op = "impute.knearest row"
 	if err := p.check(op); err != nil {

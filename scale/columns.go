@@ -126,6 +126,20 @@ func (a affine) at(x float64) float64 {
 	return y
 }
 
+// source writes a.at(x) as a Go statement that sets y, for generated plans.
+func (a affine) source(w *tabprep.SourceWriter, x, y string) {
+	var e string
+	if a.divide {
+		e = "(" + x + "-" + w.Float(a.center) + ")/" + w.Float(a.scale) + " + " + w.Float(a.offset)
+	} else {
+		e = "(" + x + "-" + w.Float(a.center) + ")*" + w.Float(1/a.scale) + " + " + w.Float(a.offset)
+	}
+	if a.clip {
+		e = "min(max(" + e + ", " + w.Float(a.lo) + "), " + w.Float(a.hi) + ")"
+	}
+	w.Line("%s = %s", y, e)
+}
+
 func (a affine) inverse(y float64) float64 { return (y-a.offset)*a.scale + a.center }
 
 // apply writes a.at(src[i]) to dst[i]: the hot loop of every linear step,
@@ -172,7 +186,9 @@ type mapper struct {
 	domain  string   // the accepted values, for errors
 	lenient bool     // out-of-domain values become missing
 	strict  bool     // the step has no OutOfDomain option to suggest
-	source  string   // every func as a Go function name, if it has one, for generated plans
+	// sources write each func as Go statements that set the variable y
+	// from the variable x, for generated plans; nil if the funcs have none.
+	sources []func(w *tabprep.SourceWriter, x, y string)
 }
 
 func outside(x, y float64) bool {
@@ -303,7 +319,7 @@ func (m *mapper) rowKernel(l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 // rowSource writes what rowKernel does as Go source, for generated plans;
 // affine maps and funcs with a Go name have one.
 func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	if m.linear == nil && m.source == "" {
+	if m.linear == nil && m.sources == nil {
 		return tabprep.Errorf(m.op, tabprep.ErrOption, "", "the step's maps have no Go source form; use the interpreted plan")
 	}
 	slots, err := m.slots(l)
@@ -314,15 +330,18 @@ func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error 
 		// What rowKernel does with funcs: a value outside the domain is
 		// missing when lenient, and otherwise an error, which the generated
 		// code leaves to the interpreted plan.
-		for _, k := range slots {
+		for j, k := range slots {
 			n := w.Num(k)
-			w.Line("if y := %s(%s); %s == %s && (y != y || (math.IsInf(y, 0) && !math.IsInf(%s, 0))) {", m.source, n, n, n, n)
+			w.Line("{")
+			w.Line("var y float64")
+			m.sources[j](w, n, "y")
+			w.Line("if %s == %s && (y != y || (math.IsInf(y, 0) && !math.IsInf(%s, 0))) {", n, n, n)
 			if m.lenient {
-				w.Line("%s = math.NaN()", n)
+				w.Line("y = math.NaN()")
 			} else {
 				w.GiveUp()
 			}
-			w.Line("} else {")
+			w.Line("}")
 			w.Line("%s = y", n)
 			w.Line("}")
 		}
@@ -335,15 +354,7 @@ func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error 
 		n := w.Num(k)
 		switch {
 		case a.clip || a.divide:
-			y := "(" + n + " - " + w.Float(a.center) + ")*" + w.Float(1/a.scale)
-			if a.divide {
-				y = "(" + n + " - " + w.Float(a.center) + ")/" + w.Float(a.scale)
-			}
-			y += " + " + w.Float(a.offset)
-			if a.clip {
-				y = "min(max(" + y + ", " + w.Float(a.lo) + "), " + w.Float(a.hi) + ")"
-			}
-			w.Line("%s = %s", n, y)
+			a.source(w, n, n)
 		case a.offset == 0:
 			w.Line("%s = (%s - %s) * %s", n, n, w.Float(a.center), w.Float(1/a.scale))
 		default:

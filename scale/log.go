@@ -92,7 +92,10 @@ func (p LogParams) mapperOf(fam logFamily, op string, inverse bool) (*mapper, er
 	if inverse {
 		f, m.domain = fam.backward, fam.range_
 	} else {
-		m.source = fam.source
+		m.sources = make([]func(w *tabprep.SourceWriter, x, y string), len(p.Columns))
+		for j := range m.sources {
+			m.sources[j] = func(w *tabprep.SourceWriter, x, y string) { w.Line("%s = %s(%s)", y, fam.source, x) }
+		}
 	}
 	for j := range m.funcs {
 		m.funcs[j] = f

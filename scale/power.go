@@ -98,6 +98,9 @@ type powerFamily struct {
 	forward, backward     func(lambda, x float64) float64
 	jacobian              func(x float64) float64 // term of Σ in ℓ(λ)
 	domain, inverseDomain string
+	// source writes forward(l, x) as Go statements that set y, with the
+	// same operations in the same order, for generated plans.
+	source func(w *tabprep.SourceWriter, l float64, x, y string)
 }
 
 var boxCoxFamily = powerFamily{
@@ -122,6 +125,17 @@ var boxCoxFamily = powerFamily{
 	jacobian:      math.Log,
 	domain:        "Box-Cox needs x > 0",
 	inverseDomain: "the Box-Cox inverse needs 1 + λ·y > 0",
+	source: func(w *tabprep.SourceWriter, l float64, x, y string) {
+		w.Line("if !(%s > 0) {", x)
+		w.Line("%s = math.NaN()", y)
+		w.Line("} else {")
+		if l == 0 {
+			w.Line("%s = math.Log(%s)", y, x)
+		} else {
+			w.Line("%s = math.Expm1(%s*math.Log(%s)) / %s", y, w.Float(l), x, w.Float(l))
+		}
+		w.Line("}")
+	},
 }
 
 var yeoJohnsonFamily = powerFamily{
@@ -166,6 +180,24 @@ var yeoJohnsonFamily = powerFamily{
 	jacobian:      func(x float64) float64 { return math.Copysign(math.Log1p(math.Abs(x)), x) },
 	domain:        "the Yeo-Johnson transform overflows float64",
 	inverseDomain: "the Yeo-Johnson inverse needs 1 + λ·y > 0 for y ≥ 0 and 1 − (2−λ)·y > 0 for y < 0",
+	source: func(w *tabprep.SourceWriter, l float64, x, y string) {
+		w.Line("switch {")
+		w.Line("case %s != %s:", x, x)
+		w.Line("%s = %s", y, x)
+		w.Line("case %s >= 0:", x)
+		if l == 0 {
+			w.Line("%s = math.Log1p(%s)", y, x)
+		} else {
+			w.Line("%s = math.Expm1(%s*math.Log1p(%s)) / %s", y, w.Float(l), x, w.Float(l))
+		}
+		w.Line("default:")
+		if m := 2 - l; m == 0 {
+			w.Line("%s = -math.Log1p(-%s)", y, x)
+		} else {
+			w.Line("%s = -math.Expm1(%s*math.Log1p(-%s)) / %s", y, w.Float(m), x, w.Float(m))
+		}
+		w.Line("}")
+	},
 }
 
 // Fit learns λ, and with ZScore the mean and standard deviation of
@@ -189,6 +221,11 @@ func (s BoxCox) RowKernel(p PowerParams, l *tabprep.RowLayout) (tabprep.RowFunc,
 	return rowKernel(s.Kind(), boxCoxOf(p), l)
 }
 
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s BoxCox) RowSource(p PowerParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), boxCoxOf(p), l, w)
+}
+
 // Fit learns λ, and with ZScore the mean and standard deviation of
 // the transformed values, for each chosen column of train.
 func (s YeoJohnson) Fit(train *tabprep.Frame) (PowerParams, error) {
@@ -208,6 +245,11 @@ func (s YeoJohnson) Inverse(p PowerParams, data *tabprep.Frame) (*tabprep.Frame,
 // RowKernel returns the transform of one row, for rows laid out by l.
 func (s YeoJohnson) RowKernel(p PowerParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return rowKernel(s.Kind(), yeoJohnsonOf(p), l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s YeoJohnson) RowSource(p PowerParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), yeoJohnsonOf(p), l, w)
 }
 
 // boxCoxOf and yeoJohnsonOf bind PowerParams to a family for the shared
@@ -312,6 +354,9 @@ func (p PowerParams) mapperOf(fam powerFamily, op string, inverse bool) (*mapper
 	}
 	m := &mapper{op: op, names: p.Columns, funcs: make([]func(float64) float64, len(p.Columns)),
 		domain: fam.domain, lenient: p.OutOfDomain == DomainMissing}
+	if !inverse {
+		m.sources = make([]func(w *tabprep.SourceWriter, x, y string), len(p.Columns))
+	}
 	for j := range m.funcs {
 		l := p.Lambda[j]
 		if math.IsNaN(l) || math.IsInf(l, 0) {
@@ -326,6 +371,10 @@ func (p PowerParams) mapperOf(fam powerFamily, op string, inverse bool) (*mapper
 			m.funcs[j] = func(y float64) float64 { return fam.backward(l, z.inverse(y)) }
 		} else {
 			m.funcs[j] = func(x float64) float64 { return z.at(fam.forward(l, x)) }
+			m.sources[j] = func(w *tabprep.SourceWriter, x, y string) {
+				fam.source(w, l, x, y)
+				z.source(w, y, y)
+			}
 		}
 	}
 	return m, nil

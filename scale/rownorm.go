@@ -141,11 +141,7 @@ func (s RowNorm) Transform(p RowNormParams, data *tabprep.Frame) (*tabprep.Frame
 // RowKernel returns the normalisation of one row, for rows laid out by l.
 // It needs no allocation per row for up to 64 chosen columns.
 func (s RowNorm) RowKernel(p RowNormParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	op := opName(s.Kind(), "row")
-	if err := checkNorm(op, p.Norm); err != nil {
-		return nil, err
-	}
-	slots, err := (&mapper{op: op, names: p.Columns}).slots(l)
+	slots, err := s.slots(p, l)
 	if err != nil {
 		return nil, err
 	}
@@ -168,7 +164,60 @@ func (s RowNorm) RowKernel(p RowNormParams, l *tabprep.RowLayout) (tabprep.RowFu
 	return fn, nil
 }
 
+// RowSource writes the row kernel as Go source, for generated plans: what
+// rowNorm and normalise do, unrolled over the columns.
+func (s RowNorm) RowSource(p RowNormParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	slots, err := s.slots(p, l)
+	if err != nil {
+		return err
+	}
+	w.Line("{")
+	w.Line("var big float64")
+	for _, k := range slots {
+		w.Line("if a := math.Abs(%s); a > big {", w.Num(k))
+		w.Line("big = a")
+		w.Line("}")
+	}
+	w.Line("norm := big")
+	if p.Norm != NormMax {
+		w.Line("if big != 0 && !math.IsInf(big, 0) {")
+		w.Line("var s float64")
+		for _, k := range slots {
+			n := w.Num(k)
+			w.Line("if %s == %s {", n, n)
+			if p.Norm == NormL1 {
+				w.Line("s += math.Abs(%s)", n)
+			} else {
+				w.Line("s += (%s / big) * (%s / big)", n, n)
+			}
+			w.Line("}")
+		}
+		if p.Norm == NormL1 {
+			w.Line("norm = s")
+		} else {
+			w.Line("norm = big * math.Sqrt(s)")
+		}
+		w.Line("}")
+	}
+	w.Line("if norm != 0 {")
+	for _, k := range slots {
+		w.Line("%s /= norm", w.Num(k))
+	}
+	w.Line("}")
+	w.Line("}")
+	return nil
+}
+
+func (s RowNorm) slots(p RowNormParams, l *tabprep.RowLayout) ([]int, error) {
+	op := opName(s.Kind(), "row")
+	if err := checkNorm(op, p.Norm); err != nil {
+		return nil, err
+	}
+	return (&mapper{op: op, names: p.Columns}).slots(l)
+}
+
 var (
 	_ tabprep.Step[RowNormParams]      = RowNorm{}
 	_ tabprep.RowKernel[RowNormParams] = RowNorm{}
+	_ tabprep.RowSource[RowNormParams] = RowNorm{}
 )

@@ -15,7 +15,7 @@ import (
 // days_ahead, pet_age, distance_km, prior_no_shows, no_show, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, visit_type=checkup, visit_type=dental, visit_type=follow_up, visit_type=surgery, visit_type=vaccination, reminder=email, reminder=none, reminder=phone, reminder=sms.
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Affine = pipeline.Generated{
-	Digest:      "sha256:ac284b9488fc192cad5b0ead8ec8f9f82d9d4ecadde70364cbe05e7207e59fbc",
+	Digest:      "sha256:036b37e56aef0b64bfd4b435cda4239ff9b9b2a63aef3d7db36177379a62fcda",
 	ApplyFloats: applyAffine,
 }
 

@@ -15,7 +15,7 @@ import (
 // days_ahead, pet_age, distance_km, prior_no_shows, no_show, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, visit_type=checkup, visit_type=dental, visit_type=follow_up, visit_type=surgery, visit_type=vaccination, reminder=email, reminder=none, reminder=phone, reminder=sms.
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Logs = pipeline.Generated{
-	Digest:      "sha256:c8661ede14f2acbd1c4ec98218e9ff7991aa21100495da483876439bf127a4ae",
+	Digest:      "sha256:10d4d2f150d5052c41b6d8b495ffbaeb13decd1236212ae3268b9ffeb50a0c60",
 	ApplyFloats: applyLogs,
 }
 
@@ -103,21 +103,30 @@ func applyLogs(dst []float64, src []tabprep.Cell) bool {
 	n7 = src[7].Num
 	n8 = src[8].Num
 	// step 0: scale.log
-	if y := math.Log(n5); n5 == n5 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n5, 0))) {
-		return false
-	} else {
+	{
+		var y float64
+		y = math.Log(n5)
+		if n5 == n5 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n5, 0))) {
+			return false
+		}
 		n5 = y
 	}
 	// step 1: scale.log1p
-	if y := math.Log1p(n3); n3 == n3 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n3, 0))) {
-		return false
-	} else {
+	{
+		var y float64
+		y = math.Log1p(n3)
+		if n3 == n3 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n3, 0))) {
+			return false
+		}
 		n3 = y
 	}
 	// step 2: scale.log1p
-	if y := math.Log1p(n7); n7 == n7 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n7, 0))) {
-		n7 = math.NaN()
-	} else {
+	{
+		var y float64
+		y = math.Log1p(n7)
+		if n7 == n7 && (y != y || (math.IsInf(y, 0) && !math.IsInf(n7, 0))) {
+			y = math.NaN()
+		}
 		n7 = y
 	}
 	// step 3: encode.onehot

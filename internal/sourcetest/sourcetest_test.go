@@ -21,9 +21,13 @@ var plans = map[string]pipeline.Generated{
 	"OneHot":          sourcetest.OneHot,
 	"Ordinal":         sourcetest.Ordinal,
 	"Tables":          sourcetest.Tables,
+	"HashAndBin":      sourcetest.HashAndBin,
 	"Parse":           sourcetest.Parse,
 	"Affine":          sourcetest.Affine,
 	"Logs":            sourcetest.Logs,
+	"RowNorms":        sourcetest.RowNorms,
+	"Powers":          sourcetest.Powers,
+	"ModelFills":      sourcetest.ModelFills,
 }
 
 // TestGeneratedMatchesInterpreted checks, for every case, that its file is
