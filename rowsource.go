@@ -29,12 +29,16 @@ type RowSource[P any] interface {
 // [SourceWriter.Str] and its code in [SourceWriter.Code]. A step reads and
 // writes the variables of the slots its layout gives it.
 type SourceWriter struct {
-	b    strings.Builder
-	used map[string]bool
+	b       strings.Builder
+	used    map[string]bool
+	imports map[string]bool
+	data    [][]float64
 }
 
 // NewSourceWriter returns an empty writer.
-func NewSourceWriter() *SourceWriter { return &SourceWriter{used: map[string]bool{}} }
+func NewSourceWriter() *SourceWriter {
+	return &SourceWriter{used: map[string]bool{}, imports: map[string]bool{}}
+}
 
 func (w *SourceWriter) local(prefix string, slot int) string {
 	name := prefix + strconv.Itoa(slot)
@@ -100,6 +104,39 @@ func (w *SourceWriter) Float(v float64) string {
 	// constant becomes a float64 at once (an operand or a value of one).
 	return strconv.FormatFloat(v, 'g', -1, 64)
 }
+
+// Import records that the source uses the package with the given import
+// path, and returns the name to refer to it by (the path's last element).
+// The generated file always imports math.
+func (w *SourceWriter) Import(path string) string {
+	w.imports[path] = true
+	return path[strings.LastIndexByte(path, '/')+1:]
+}
+
+// Imports returns the import paths recorded by Import, sorted.
+func (w *SourceWriter) Imports() []string {
+	paths := make([]string, 0, len(w.imports))
+	for p := range w.imports {
+		paths = append(paths, p)
+	}
+	slices.Sort(paths)
+	return paths
+}
+
+// Data records a table of constants that the generated file declares once,
+// as a package-level array, and returns the placeholder that stands for the
+// array's name in the source (the generator replaces it; see
+// [DataPlaceholder]). Use it for tables too long to write in every call.
+func (w *SourceWriter) Data(values []float64) string {
+	w.data = append(w.data, slices.Clone(values))
+	return DataPlaceholder(len(w.data) - 1)
+}
+
+// DataTables returns the tables recorded by Data, in order.
+func (w *SourceWriter) DataTables() [][]float64 { return w.data }
+
+// DataPlaceholder returns the placeholder of table i of [SourceWriter.Data].
+func DataPlaceholder(i int) string { return "⟦data" + strconv.Itoa(i) + "⟧" }
 
 // Quote returns s as a Go string literal.
 func (w *SourceWriter) Quote(s string) string { return strconv.Quote(s) }

@@ -128,6 +128,37 @@ func (q curve) prob(x float64) float64 {
 	return (float64(j-1) + t) / last
 }
 
+// source returns the Go source of the forward map of q (prob, then the
+// normal quantile if normal), for generated plans: the same operations in
+// the same order, on q declared once as a table of constants.
+func (q curve) source(normal bool) func(w *tabprep.SourceWriter, x, y string) {
+	return func(w *tabprep.SourceWriter, x, y string) {
+		table, sl := w.Data(q), w.Import("slices")
+		last := w.Float(float64(len(q) - 1))
+		w.Line("if %s != %s {", x, x)
+		w.Line("%s = %s", y, x)
+		w.Line("} else {")
+		w.Line("q := %s[:]", table)
+		w.Line("j, found := %s.BinarySearch(q, %s)", sl, x)
+		w.Line("switch {")
+		w.Line("case found:")
+		w.Line("i, _ := %s.BinarySearch(q[j:], math.Nextafter(%s, math.Inf(1)))", sl, x)
+		w.Line("%s = (float64(j) + float64(j+i-1)) / 2 / %s", y, last)
+		w.Line("case j == 0:")
+		w.Line("%s = 0", y)
+		w.Line("case j == len(q):")
+		w.Line("%s = 1", y)
+		w.Line("default:")
+		w.Line("t := (%s - q[j-1]) / (q[j] - q[j-1])", x)
+		w.Line("%s = (float64(j-1) + t) / %s", y, last)
+		w.Line("}")
+		if normal {
+			w.Line("%s = %s.UnitNormal.Quantile(min(max(%s, %s), %s))", y, w.Import("gonum.org/v1/gonum/stat/distuv"), y, w.Float(normalTail), w.Float(1-normalTail))
+		}
+		w.Line("}")
+	}
+}
+
 // value returns the value at probability u ∈ [0, 1], NaN outside.
 func (q curve) value(u float64) float64 {
 	if !(u >= 0 && u <= 1) {
@@ -160,6 +191,9 @@ func (p QuantileParams) mapper(op string, inverse bool) (*mapper, error) {
 		q := curve(qs)
 		if len(q) < 2 || !slices.IsSorted(q) || math.IsNaN(q[0]) || math.IsInf(q[0], 0) || math.IsInf(q[len(q)-1], 0) {
 			return nil, tabprep.Errorf(op, tabprep.ErrOption, p.Columns[j], "quantiles are not an ascending list of at least 2 finite numbers; refit the step")
+		}
+		if !inverse {
+			m.sources = append(m.sources, q.source(normal))
 		}
 		switch {
 		case !inverse && !normal:
@@ -215,6 +249,11 @@ func (s Quantile) Inverse(p QuantileParams, data *tabprep.Frame) (*tabprep.Frame
 // in.
 func (s Quantile) RowKernel(p QuantileParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
 	return rowKernel(s.Kind(), p, l)
+}
+
+// RowSource writes the row kernel as Go source, for generated plans.
+func (s Quantile) RowSource(p QuantileParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	return rowSource(s.Kind(), p, l, w)
 }
 
 var (

@@ -28,6 +28,7 @@ var plans = map[string]pipeline.Generated{
 	"RowNorms":        sourcetest.RowNorms,
 	"Powers":          sourcetest.Powers,
 	"ModelFills":      sourcetest.ModelFills,
+	"Quantiles":       sourcetest.Quantiles,
 }
 
 // TestGeneratedMatchesInterpreted checks, for every case, that its file is
