@@ -35,8 +35,10 @@
 // Fit learns parameters P from train rows; its Transform applies P to any
 // rows and is a pure function of (P, data). Optional capabilities are extra
 // interfaces found by type assertion: [Inverter], [RowKernel] (for compiled
-// serving plans, against a [RowLayout]), [Accumulating] (chunked fits),
-// [OutOfFold] and [Supervised] (steps that learn from a target column).
+// serving plans, against a [RowLayout]), [RowSource] (the same kernel as Go
+// source, for plans generated ahead of time, written with a
+// [SourceWriter]), [Accumulating] (chunked fits), [OutOfFold] and
+// [Supervised] (steps that learn from a target column).
 //
 // # Errors
 //
