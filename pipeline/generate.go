@@ -9,6 +9,7 @@ import (
 	"go/token"
 	"io"
 	"slices"
+	"strconv"
 	"strings"
 
 	"github.com/tabprep/tabprep"
@@ -93,7 +94,7 @@ var %s = pipeline.Generated{
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
-`, opt.Package, std.String(), other.String(), opt.Name, strings.Join(f.input.Names(), ", "), strings.Join(f.output.Names(), ", "), opt.Name, digest(body), opt.Name)
+`, opt.Package, std.String(), other.String(), opt.Name, quoted(f.input.Names()), quoted(f.output.Names()), opt.Name, digest(body), opt.Name)
 	// The tables of constants are named after the plan, so that one
 	// package can hold several plans; the digest covers them under their
 	// placeholders.
@@ -135,6 +136,16 @@ func (f *Fitted) CompileWith(g Generated) (*Plan, error) {
 	}
 	p.gen = g.ApplyFloats
 	return p, nil
+}
+
+// quoted returns names as Go string literals, so that no name can break
+// the comment they stand in.
+func quoted(names []string) string {
+	q := make([]string, len(names))
+	for i, n := range names {
+		q[i] = strconv.Quote(n)
+	}
+	return strings.Join(q, ", ")
 }
 
 func digest(body string) string {

@@ -115,8 +115,8 @@ func Kinds() []string {
 	return kinds
 }
 
-// Data returns the demo data with a column of decimal-comma fee texts,
-// split into train rows and test rows.
+// Data returns the demo data with a column of decimal-comma fee texts and
+// one of notes with awkward levels, split into train rows and test rows.
 func Data() (train, test *tabprep.Frame, err error) {
 	all, err := tabprep.ReadCSV(bytes.NewReader(demodata.CSV), nil)
 	if err != nil {
@@ -135,7 +135,16 @@ func Data() (train, test *tabprep.Frame, err error) {
 			fees[i] = "free"
 		}
 	}
-	if all, err = all.With(tabprep.NewCategorical("fee", fees)); err != nil {
+	// Levels that test the quoting of generated source: quotes, a
+	// backslash, control characters, a comment marker and non-ASCII text.
+	odd := []string{`O'Brien`, `say "hi"`, `back\slash`, "tab\there", "line\nbreak", "*/ end", "ünïcödé", "日本", "\x00nul"}
+	notes := make([]string, all.NumRows())
+	for i := range notes {
+		if i%3 != 0 {
+			notes[i] = odd[rng.IntN(len(odd))]
+		}
+	}
+	if all, err = all.With(tabprep.NewCategorical("fee", fees), tabprep.NewCategorical("note", notes)); err != nil {
 		return nil, nil, err
 	}
 	tagged, _, err := split.Random{Fraction: 0.25, Partition: "test", Seed: 9}.Apply(all)

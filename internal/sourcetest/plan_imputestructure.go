@@ -10,27 +10,27 @@ import (
 )
 
 // ImputeStructure is the generated row plan of a fitted pipeline with input columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows, no_show
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows", "no_show", "note"
 // and output columns
-// days_ahead, distance_km, prior_no_shows, no_show, pet_age_missing, distance_km_missing, reminder_missing, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, visit_type=checkup, visit_type=dental, visit_type=follow_up, visit_type=surgery, visit_type=vaccination, reminder=email, reminder=none, reminder=phone, reminder=sms.
+// "days_ahead", "distance_km", "prior_no_shows", "no_show", "pet_age_missing", "distance_km_missing", "reminder_missing", "note_missing", "clinic=Hillcrest", "clinic=Lakeview", "clinic=Northgate", "clinic=Old Town", "clinic=Riverside", "species=bird", "species=cat", "species=dog", "species=rabbit", "species=reptile", "visit_type=checkup", "visit_type=dental", "visit_type=follow_up", "visit_type=surgery", "visit_type=vaccination", "reminder=email", "reminder=none", "reminder=phone", "reminder=sms".
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var ImputeStructure = pipeline.Generated{
-	Digest:      "sha256:2b01d4169dce94c587163be7339d5ed694b8068c4947026986f9dc7927629814",
+	Digest:      "sha256:60d140d0086441970ff403d59e3649ec2700392e10a10f73d59d2a6647b11397",
 	ApplyFloats: applyImputeStructure,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
 func applyImputeStructure(dst []float64, src []tabprep.Cell) bool {
-	if len(src) != 9 || len(dst) != 26 {
+	if len(src) != 10 || len(dst) != 27 {
 		return false
 	}
-	var n3, n4, n5, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30 float64
-	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n3, n4, n5, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30
-	var s0, s1, s2, s6 string
-	_, _, _, _ = s0, s1, s2, s6
-	var c0, c1, c2, c6 int32
-	_, _, _, _ = c0, c1, c2, c6
+	var n3, n4, n5, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30, n31, n32 float64
+	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n3, n4, n5, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30, n31, n32
+	var s0, s1, s2, s6, s9 string
+	_, _, _, _, _ = s0, s1, s2, s6, s9
+	var c0, c1, c2, c6, c9 int32
+	_, _, _, _, _ = c0, c1, c2, c6, c9
 	s0 = src[0].Str
 	switch s0 {
 	case "":
@@ -102,91 +102,120 @@ func applyImputeStructure(dst []float64, src []tabprep.Cell) bool {
 	}
 	n7 = src[7].Num
 	n8 = src[8].Num
-	// step 0: impute.indicators
-	n9 = 0
-	if n4 != n4 {
-		n9 = 1
+	s9 = src[9].Str
+	switch s9 {
+	case "":
+		c9 = -1
+	case "ünïcödé":
+		c9 = 0
+	case "back\\slash":
+		c9 = 1
+	case "tab\there":
+		c9 = 2
+	case "O'Brien":
+		c9 = 3
+	case "日本":
+		c9 = 4
+	case "\x00nul":
+		c9 = 5
+	case "*/ end":
+		c9 = 6
+	case "say \"hi\"":
+		c9 = 7
+	case "line\nbreak":
+		c9 = 8
+	default:
+		c9 = -2
 	}
+	// step 0: impute.indicators
 	n10 = 0
-	if n5 != n5 {
+	if n4 != n4 {
 		n10 = 1
 	}
 	n11 = 0
-	if c6 == -1 {
+	if n5 != n5 {
 		n11 = 1
+	}
+	n12 = 0
+	if c6 == -1 {
+		n12 = 1
+	}
+	n13 = 0
+	if c9 == -1 {
+		n13 = 1
 	}
 	// step 1: impute.dropsparse
 	// step 2: encode.onehot
-	n12 = 0
-	n13 = 0
 	n14 = 0
 	n15 = 0
 	n16 = 0
+	n17 = 0
+	n18 = 0
 	switch c0 {
 	case 0:
-		n12 = 1
-	case 1:
-		n16 = 1
-	case 2:
-		n13 = 1
-	case 3:
 		n14 = 1
-	case 4:
+	case 1:
+		n18 = 1
+	case 2:
 		n15 = 1
+	case 3:
+		n16 = 1
+	case 4:
+		n17 = 1
 	case -1:
 	default:
 	}
-	n17 = 0
-	n18 = 0
 	n19 = 0
 	n20 = 0
 	n21 = 0
+	n22 = 0
+	n23 = 0
 	switch c1 {
 	case 0:
-		n18 = 1
-	case 1:
-		n19 = 1
-	case 2:
-		n17 = 1
-	case 3:
-		n21 = 1
-	case 4:
 		n20 = 1
+	case 1:
+		n21 = 1
+	case 2:
+		n19 = 1
+	case 3:
+		n23 = 1
+	case 4:
+		n22 = 1
 	case -1:
 	default:
 	}
-	n22 = 0
-	n23 = 0
 	n24 = 0
 	n25 = 0
 	n26 = 0
+	n27 = 0
+	n28 = 0
 	switch c2 {
 	case 0:
-		n22 = 1
-	case 1:
-		n23 = 1
-	case 2:
-		n25 = 1
-	case 3:
 		n24 = 1
-	case 4:
+	case 1:
+		n25 = 1
+	case 2:
+		n27 = 1
+	case 3:
 		n26 = 1
+	case 4:
+		n28 = 1
 	case -1:
 	default:
 	}
-	n27 = 0
-	n28 = 0
 	n29 = 0
 	n30 = 0
+	n31 = 0
+	n32 = 0
 	switch c6 {
 	case 0:
-		n30 = 1
+		n32 = 1
 	case 1:
-		n28 = 1
+		n30 = 1
 	case 2:
-		n29 = 1
+		n31 = 1
 	case 3:
-		n27 = 1
+		n29 = 1
 	case -1:
 	default:
 	}
@@ -194,27 +223,28 @@ func applyImputeStructure(dst []float64, src []tabprep.Cell) bool {
 	dst[1] = n5
 	dst[2] = n7
 	dst[3] = n8
-	dst[4] = n9
-	dst[5] = n10
-	dst[6] = n11
-	dst[7] = n12
-	dst[8] = n13
-	dst[9] = n14
-	dst[10] = n15
-	dst[11] = n16
-	dst[12] = n17
-	dst[13] = n18
-	dst[14] = n19
-	dst[15] = n20
-	dst[16] = n21
-	dst[17] = n22
-	dst[18] = n23
-	dst[19] = n24
-	dst[20] = n25
-	dst[21] = n26
-	dst[22] = n27
-	dst[23] = n28
-	dst[24] = n29
-	dst[25] = n30
+	dst[4] = n10
+	dst[5] = n11
+	dst[6] = n12
+	dst[7] = n13
+	dst[8] = n14
+	dst[9] = n15
+	dst[10] = n16
+	dst[11] = n17
+	dst[12] = n18
+	dst[13] = n19
+	dst[14] = n20
+	dst[15] = n21
+	dst[16] = n22
+	dst[17] = n23
+	dst[18] = n24
+	dst[19] = n25
+	dst[20] = n26
+	dst[21] = n27
+	dst[22] = n28
+	dst[23] = n29
+	dst[24] = n30
+	dst[25] = n31
+	dst[26] = n32
 	return true
 }

@@ -10,27 +10,27 @@ import (
 )
 
 // Logs is the generated row plan of a fitted pipeline with input columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows, no_show
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows", "no_show", "note"
 // and output columns
-// days_ahead, pet_age, distance_km, prior_no_shows, no_show, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, visit_type=checkup, visit_type=dental, visit_type=follow_up, visit_type=surgery, visit_type=vaccination, reminder=email, reminder=none, reminder=phone, reminder=sms.
+// "days_ahead", "pet_age", "distance_km", "prior_no_shows", "no_show", "clinic=Hillcrest", "clinic=Lakeview", "clinic=Northgate", "clinic=Old Town", "clinic=Riverside", "species=bird", "species=cat", "species=dog", "species=rabbit", "species=reptile", "visit_type=checkup", "visit_type=dental", "visit_type=follow_up", "visit_type=surgery", "visit_type=vaccination", "reminder=email", "reminder=none", "reminder=phone", "reminder=sms", "note=\x00nul", "note=*/ end", "note=O'Brien", "note=back\\slash", "note=line\nbreak", "note=say \"hi\"", "note=tab\there", "note=ünïcödé", "note=日本".
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Logs = pipeline.Generated{
-	Digest:      "sha256:10d4d2f150d5052c41b6d8b495ffbaeb13decd1236212ae3268b9ffeb50a0c60",
+	Digest:      "sha256:dcb2ed870559efb07eac3a8195546e2ce6ce164439936a25fc83ecca2e6ad117",
 	ApplyFloats: applyLogs,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
 func applyLogs(dst []float64, src []tabprep.Cell) bool {
-	if len(src) != 9 || len(dst) != 24 {
+	if len(src) != 10 || len(dst) != 33 {
 		return false
 	}
-	var n3, n4, n5, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27 float64
-	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n3, n4, n5, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27
-	var s0, s1, s2, s6 string
-	_, _, _, _ = s0, s1, s2, s6
-	var c0, c1, c2, c6 int32
-	_, _, _, _ = c0, c1, c2, c6
+	var n3, n4, n5, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30, n31, n32, n33, n34, n35, n36, n37 float64
+	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n3, n4, n5, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28, n29, n30, n31, n32, n33, n34, n35, n36, n37
+	var s0, s1, s2, s6, s9 string
+	_, _, _, _, _ = s0, s1, s2, s6, s9
+	var c0, c1, c2, c6, c9 int32
+	_, _, _, _, _ = c0, c1, c2, c6, c9
 	s0 = src[0].Str
 	switch s0 {
 	case "":
@@ -102,6 +102,31 @@ func applyLogs(dst []float64, src []tabprep.Cell) bool {
 	}
 	n7 = src[7].Num
 	n8 = src[8].Num
+	s9 = src[9].Str
+	switch s9 {
+	case "":
+		c9 = -1
+	case "ünïcödé":
+		c9 = 0
+	case "back\\slash":
+		c9 = 1
+	case "tab\there":
+		c9 = 2
+	case "O'Brien":
+		c9 = 3
+	case "日本":
+		c9 = 4
+	case "\x00nul":
+		c9 = 5
+	case "*/ end":
+		c9 = 6
+	case "say \"hi\"":
+		c9 = 7
+	case "line\nbreak":
+		c9 = 8
+	default:
+		c9 = -2
+	}
 	// step 0: scale.log
 	{
 		var y float64
@@ -130,76 +155,107 @@ func applyLogs(dst []float64, src []tabprep.Cell) bool {
 		n7 = y
 	}
 	// step 3: encode.onehot
-	n9 = 0
 	n10 = 0
 	n11 = 0
 	n12 = 0
 	n13 = 0
+	n14 = 0
 	switch c0 {
 	case 0:
-		n9 = 1
-	case 1:
-		n13 = 1
-	case 2:
 		n10 = 1
-	case 3:
+	case 1:
+		n14 = 1
+	case 2:
 		n11 = 1
-	case 4:
+	case 3:
 		n12 = 1
+	case 4:
+		n13 = 1
 	case -1:
 	default:
 	}
-	n14 = 0
 	n15 = 0
 	n16 = 0
 	n17 = 0
 	n18 = 0
+	n19 = 0
 	switch c1 {
 	case 0:
-		n15 = 1
-	case 1:
 		n16 = 1
-	case 2:
-		n14 = 1
-	case 3:
-		n18 = 1
-	case 4:
+	case 1:
 		n17 = 1
+	case 2:
+		n15 = 1
+	case 3:
+		n19 = 1
+	case 4:
+		n18 = 1
 	case -1:
 	default:
 	}
-	n19 = 0
 	n20 = 0
 	n21 = 0
 	n22 = 0
 	n23 = 0
+	n24 = 0
 	switch c2 {
 	case 0:
-		n19 = 1
-	case 1:
 		n20 = 1
-	case 2:
-		n22 = 1
-	case 3:
+	case 1:
 		n21 = 1
-	case 4:
+	case 2:
 		n23 = 1
+	case 3:
+		n22 = 1
+	case 4:
+		n24 = 1
 	case -1:
 	default:
 	}
-	n24 = 0
 	n25 = 0
 	n26 = 0
 	n27 = 0
+	n28 = 0
 	switch c6 {
 	case 0:
-		n27 = 1
+		n28 = 1
 	case 1:
-		n25 = 1
-	case 2:
 		n26 = 1
+	case 2:
+		n27 = 1
 	case 3:
-		n24 = 1
+		n25 = 1
+	case -1:
+	default:
+	}
+	n29 = 0
+	n30 = 0
+	n31 = 0
+	n32 = 0
+	n33 = 0
+	n34 = 0
+	n35 = 0
+	n36 = 0
+	n37 = 0
+	switch c9 {
+	case 0:
+		n36 = 1
+	case 1:
+		n32 = 1
+	case 2:
+		n35 = 1
+	case 3:
+		n31 = 1
+	case 4:
+		n37 = 1
+	case 5:
+		n29 = 1
+	case 6:
+		n30 = 1
+	case 7:
+		n34 = 1
+	case 8:
+		n33 = 1
 	case -1:
 	default:
 	}
@@ -208,24 +264,33 @@ func applyLogs(dst []float64, src []tabprep.Cell) bool {
 	dst[2] = n5
 	dst[3] = n7
 	dst[4] = n8
-	dst[5] = n9
-	dst[6] = n10
-	dst[7] = n11
-	dst[8] = n12
-	dst[9] = n13
-	dst[10] = n14
-	dst[11] = n15
-	dst[12] = n16
-	dst[13] = n17
-	dst[14] = n18
-	dst[15] = n19
-	dst[16] = n20
-	dst[17] = n21
-	dst[18] = n22
-	dst[19] = n23
-	dst[20] = n24
-	dst[21] = n25
-	dst[22] = n26
-	dst[23] = n27
+	dst[5] = n10
+	dst[6] = n11
+	dst[7] = n12
+	dst[8] = n13
+	dst[9] = n14
+	dst[10] = n15
+	dst[11] = n16
+	dst[12] = n17
+	dst[13] = n18
+	dst[14] = n19
+	dst[15] = n20
+	dst[16] = n21
+	dst[17] = n22
+	dst[18] = n23
+	dst[19] = n24
+	dst[20] = n25
+	dst[21] = n26
+	dst[22] = n27
+	dst[23] = n28
+	dst[24] = n29
+	dst[25] = n30
+	dst[26] = n31
+	dst[27] = n32
+	dst[28] = n33
+	dst[29] = n34
+	dst[30] = n35
+	dst[31] = n36
+	dst[32] = n37
 	return true
 }

@@ -10,27 +10,27 @@ import (
 )
 
 // Ordinal is the generated row plan of a fitted pipeline with input columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows, no_show
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows", "no_show", "note"
 // and output columns
-// visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows, no_show, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile.
+// "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows", "no_show", "clinic=Hillcrest", "clinic=Lakeview", "clinic=Northgate", "clinic=Old Town", "clinic=Riverside", "species=bird", "species=cat", "species=dog", "species=rabbit", "species=reptile", "note=\x00nul", "note=*/ end", "note=O'Brien", "note=back\\slash", "note=line\nbreak", "note=say \"hi\"", "note=tab\there", "note=ünïcödé", "note=日本".
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Ordinal = pipeline.Generated{
-	Digest:      "sha256:953e7dbeb8c07b99f518347628a41b0f6a11cdba7685602941ba5543de7ebf2b",
+	Digest:      "sha256:e4773579343e31858fe916444382478228e2162482044d19a13fe777dd393b3e",
 	ApplyFloats: applyOrdinal,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
 func applyOrdinal(dst []float64, src []tabprep.Cell) bool {
-	if len(src) != 9 || len(dst) != 17 {
+	if len(src) != 10 || len(dst) != 26 {
 		return false
 	}
-	var n2, n3, n4, n5, n6, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18 float64
-	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n2, n3, n4, n5, n6, n7, n8, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18
-	var s0, s1, s2, s6 string
-	_, _, _, _ = s0, s1, s2, s6
-	var c0, c1, c2, c6 int32
-	_, _, _, _ = c0, c1, c2, c6
+	var n2, n3, n4, n5, n6, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28 float64
+	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n2, n3, n4, n5, n6, n7, n8, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21, n22, n23, n24, n25, n26, n27, n28
+	var s0, s1, s2, s6, s9 string
+	_, _, _, _, _ = s0, s1, s2, s6, s9
+	var c0, c1, c2, c6, c9 int32
+	_, _, _, _, _ = c0, c1, c2, c6, c9
 	s0 = src[0].Str
 	switch s0 {
 	case "":
@@ -102,6 +102,31 @@ func applyOrdinal(dst []float64, src []tabprep.Cell) bool {
 	}
 	n7 = src[7].Num
 	n8 = src[8].Num
+	s9 = src[9].Str
+	switch s9 {
+	case "":
+		c9 = -1
+	case "ünïcödé":
+		c9 = 0
+	case "back\\slash":
+		c9 = 1
+	case "tab\there":
+		c9 = 2
+	case "O'Brien":
+		c9 = 3
+	case "日本":
+		c9 = 4
+	case "\x00nul":
+		c9 = 5
+	case "*/ end":
+		c9 = 6
+	case "say \"hi\"":
+		c9 = 7
+	case "line\nbreak":
+		c9 = 8
+	default:
+		c9 = -2
+	}
 	// step 0: encode.ordinal
 	switch c2 {
 	case 0:
@@ -135,41 +160,72 @@ func applyOrdinal(dst []float64, src []tabprep.Cell) bool {
 		n6 = -1
 	}
 	// step 2: encode.onehot
-	n9 = 0
 	n10 = 0
 	n11 = 0
 	n12 = 0
 	n13 = 0
+	n14 = 0
 	switch c0 {
 	case 0:
-		n9 = 1
-	case 1:
-		n13 = 1
-	case 2:
 		n10 = 1
-	case 3:
+	case 1:
+		n14 = 1
+	case 2:
 		n11 = 1
-	case 4:
+	case 3:
 		n12 = 1
+	case 4:
+		n13 = 1
 	case -1:
 	default:
 	}
-	n14 = 0
 	n15 = 0
 	n16 = 0
 	n17 = 0
 	n18 = 0
+	n19 = 0
 	switch c1 {
 	case 0:
-		n15 = 1
-	case 1:
 		n16 = 1
-	case 2:
-		n14 = 1
-	case 3:
-		n18 = 1
-	case 4:
+	case 1:
 		n17 = 1
+	case 2:
+		n15 = 1
+	case 3:
+		n19 = 1
+	case 4:
+		n18 = 1
+	case -1:
+	default:
+	}
+	n20 = 0
+	n21 = 0
+	n22 = 0
+	n23 = 0
+	n24 = 0
+	n25 = 0
+	n26 = 0
+	n27 = 0
+	n28 = 0
+	switch c9 {
+	case 0:
+		n27 = 1
+	case 1:
+		n23 = 1
+	case 2:
+		n26 = 1
+	case 3:
+		n22 = 1
+	case 4:
+		n28 = 1
+	case 5:
+		n20 = 1
+	case 6:
+		n21 = 1
+	case 7:
+		n25 = 1
+	case 8:
+		n24 = 1
 	case -1:
 	default:
 	}
@@ -180,15 +236,24 @@ func applyOrdinal(dst []float64, src []tabprep.Cell) bool {
 	dst[4] = n6
 	dst[5] = n7
 	dst[6] = n8
-	dst[7] = n9
-	dst[8] = n10
-	dst[9] = n11
-	dst[10] = n12
-	dst[11] = n13
-	dst[12] = n14
-	dst[13] = n15
-	dst[14] = n16
-	dst[15] = n17
-	dst[16] = n18
+	dst[7] = n10
+	dst[8] = n11
+	dst[9] = n12
+	dst[10] = n13
+	dst[11] = n14
+	dst[12] = n15
+	dst[13] = n16
+	dst[14] = n17
+	dst[15] = n18
+	dst[16] = n19
+	dst[17] = n20
+	dst[18] = n21
+	dst[19] = n22
+	dst[20] = n23
+	dst[21] = n24
+	dst[22] = n25
+	dst[23] = n26
+	dst[24] = n27
+	dst[25] = n28
 	return true
 }

@@ -10,27 +10,27 @@ import (
 )
 
 // Tables is the generated row plan of a fitted pipeline with input columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows", "note"
 // and output columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, prior_no_shows, reminder=email, reminder=none, reminder=phone, reminder=sms.
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "prior_no_shows", "reminder=email", "reminder=none", "reminder=phone", "reminder=sms", "note=\x00nul", "note=*/ end", "note=O'Brien", "note=back\\slash", "note=line\nbreak", "note=say \"hi\"", "note=tab\there", "note=ünïcödé", "note=日本".
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Tables = pipeline.Generated{
-	Digest:      "sha256:16e2ebc12b982b5988a2ccdb6955080209d2c1aab2e8a4aa755957847e5ad8f0",
+	Digest:      "sha256:b1020ea4192d254684a0bda2b65789e4ce3b7b7dae035e91f5ad66e66adfa646",
 	ApplyFloats: applyTables,
 }
 
 var _ = math.NaN // the source may need it for NaN or infinite constants
 
 func applyTables(dst []float64, src []tabprep.Cell) bool {
-	if len(src) != 8 || len(dst) != 11 {
+	if len(src) != 9 || len(dst) != 20 {
 		return false
 	}
-	var n0, n1, n2, n3, n4, n5, n7, n8, n9, n10, n11 float64
-	_, _, _, _, _, _, _, _, _, _, _ = n0, n1, n2, n3, n4, n5, n7, n8, n9, n10, n11
-	var s0, s1, s2, s6 string
-	_, _, _, _ = s0, s1, s2, s6
-	var c0, c1, c2, c6 int32
-	_, _, _, _ = c0, c1, c2, c6
+	var n0, n1, n2, n3, n4, n5, n7, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21 float64
+	_, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _, _ = n0, n1, n2, n3, n4, n5, n7, n9, n10, n11, n12, n13, n14, n15, n16, n17, n18, n19, n20, n21
+	var s0, s1, s2, s6, s8 string
+	_, _, _, _, _ = s0, s1, s2, s6, s8
+	var c0, c1, c2, c6, c8 int32
+	_, _, _, _, _ = c0, c1, c2, c6, c8
 	s0 = src[0].Str
 	switch s0 {
 	case "":
@@ -101,6 +101,31 @@ func applyTables(dst []float64, src []tabprep.Cell) bool {
 		c6 = -2
 	}
 	n7 = src[7].Num
+	s8 = src[8].Str
+	switch s8 {
+	case "":
+		c8 = -1
+	case "ünïcödé":
+		c8 = 0
+	case "back\\slash":
+		c8 = 1
+	case "tab\there":
+		c8 = 2
+	case "O'Brien":
+		c8 = 3
+	case "日本":
+		c8 = 4
+	case "\x00nul":
+		c8 = 5
+	case "*/ end":
+		c8 = 6
+	case "say \"hi\"":
+		c8 = 7
+	case "line\nbreak":
+		c8 = 8
+	default:
+		c8 = -2
+	}
 	// step 0: encode.frequency
 	switch c1 {
 	case 0:
@@ -153,19 +178,50 @@ func applyTables(dst []float64, src []tabprep.Cell) bool {
 		n0 = 0.128
 	}
 	// step 3: encode.onehot
-	n8 = 0
 	n9 = 0
 	n10 = 0
 	n11 = 0
+	n12 = 0
 	switch c6 {
 	case 0:
-		n11 = 1
+		n12 = 1
 	case 1:
-		n9 = 1
-	case 2:
 		n10 = 1
+	case 2:
+		n11 = 1
 	case 3:
-		n8 = 1
+		n9 = 1
+	case -1:
+	default:
+	}
+	n13 = 0
+	n14 = 0
+	n15 = 0
+	n16 = 0
+	n17 = 0
+	n18 = 0
+	n19 = 0
+	n20 = 0
+	n21 = 0
+	switch c8 {
+	case 0:
+		n20 = 1
+	case 1:
+		n16 = 1
+	case 2:
+		n19 = 1
+	case 3:
+		n15 = 1
+	case 4:
+		n21 = 1
+	case 5:
+		n13 = 1
+	case 6:
+		n14 = 1
+	case 7:
+		n18 = 1
+	case 8:
+		n17 = 1
 	case -1:
 	default:
 	}
@@ -176,9 +232,18 @@ func applyTables(dst []float64, src []tabprep.Cell) bool {
 	dst[4] = n4
 	dst[5] = n5
 	dst[6] = n7
-	dst[7] = n8
-	dst[8] = n9
-	dst[9] = n10
-	dst[10] = n11
+	dst[7] = n9
+	dst[8] = n10
+	dst[9] = n11
+	dst[10] = n12
+	dst[11] = n13
+	dst[12] = n14
+	dst[13] = n15
+	dst[14] = n16
+	dst[15] = n17
+	dst[16] = n18
+	dst[17] = n19
+	dst[18] = n20
+	dst[19] = n21
 	return true
 }

@@ -10,9 +10,9 @@ import (
 )
 
 // Plan is the generated row plan of a fitted pipeline with input columns
-// clinic, species, visit_type, days_ahead, pet_age, distance_km, reminder, prior_no_shows
+// "clinic", "species", "visit_type", "days_ahead", "pet_age", "distance_km", "reminder", "prior_no_shows"
 // and output columns
-// visit_type, days_ahead, pet_age, distance_km, prior_no_shows, clinic=Hillcrest, clinic=Lakeview, clinic=Northgate, clinic=Old Town, clinic=Riverside, species=bird, species=cat, species=dog, species=rabbit, species=reptile, reminder=email, reminder=none, reminder=phone, reminder=sms.
+// "visit_type", "days_ahead", "pet_age", "distance_km", "prior_no_shows", "clinic=Hillcrest", "clinic=Lakeview", "clinic=Northgate", "clinic=Old Town", "clinic=Riverside", "species=bird", "species=cat", "species=dog", "species=rabbit", "species=reptile", "reminder=email", "reminder=none", "reminder=phone", "reminder=sms".
 // Pass it to pipeline.Fitted.CompileWith with that pipeline.
 var Plan = pipeline.Generated{
 	Digest:      "sha256:910da95a069b2bad7dba6c964495fcc3255ece09f80f867064dfa9aab3ccfd30",
