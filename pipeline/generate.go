@@ -27,7 +27,9 @@ type Generated struct {
 	Digest string
 	// ApplyFloats transforms one row as [Plan.ApplyFloats] does. It
 	// reports false, leaving dst alone, for a row it leaves to the
-	// interpreted plan: a row the plan reports an error for.
+	// interpreted plan: one the plan reports an error for, or one that
+	// needs work the source does not hold, such as parsing a text no
+	// training row had.
 	ApplyFloats func(dst []float64, src []tabprep.Cell) bool
 }
 
