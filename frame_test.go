@@ -262,13 +262,7 @@ func TestSelectionResolve(t *testing.T) {
 		tabprep.NewNumeric("age", []float64{2}),
 		tabprep.NewNumeric("dist_mi", []float64{3}),
 	)
-	tests := []struct {
-		name string
-		sel  tabprep.Selection
-		want []string
-		err  error
-		msg  string
-	}{
+	tests := []resolveCase{
 		{"all numeric", tabprep.Selection{}, []string{"dist_km", "age", "dist_mi"}, nil, ""},
 		{"names in frame order", tabprep.Names("age", "dist_km"), []string{"dist_km", "age"}, nil, ""},
 		{"pattern", tabprep.Matching("dist_*"), []string{"dist_km", "dist_mi"}, nil, ""},
@@ -281,9 +275,22 @@ func TestSelectionResolve(t *testing.T) {
 		{"no match", tabprep.Matching("zz*"), nil, tabprep.ErrNoColumn,
 			`s.fit: selection chooses nothing: no numeric column matches zz*; the frame has ["dist_km" "species" "age" "dist_mi"]`},
 	}
+	runResolve(t, tests, func(sel tabprep.Selection) ([]string, error) { return sel.Resolve("s.fit", f, tabprep.Numeric) })
+}
+
+// resolveCase is one selection and what resolving it must give.
+type resolveCase struct {
+	name string
+	sel  tabprep.Selection
+	want []string
+	err  error
+	msg  string
+}
+
+func runResolve(t *testing.T, tests []resolveCase, resolve func(tabprep.Selection) ([]string, error)) {
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			got, err := tt.sel.Resolve("s.fit", f, tabprep.Numeric)
+			got, err := resolve(tt.sel)
 			if tt.err != nil {
 				require.ErrorIs(t, err, tt.err)
 				require.EqualError(t, err, tt.msg)
@@ -293,6 +300,25 @@ func TestSelectionResolve(t *testing.T) {
 			require.Equal(t, tt.want, got)
 		})
 	}
+}
+
+func TestSelectionResolveAny(t *testing.T) {
+	f := tabprep.MustFrame(
+		tabprep.NewNumeric("dist_km", []float64{1}),
+		tabprep.NewCategorical("species", []string{"cat"}),
+		tabprep.NewNumeric("age", []float64{2}),
+	)
+	tests := []resolveCase{
+		{"all", tabprep.Selection{}, []string{"dist_km", "species", "age"}, nil, ""},
+		{"either kind by name", tabprep.Names("age", "species"), []string{"species", "age"}, nil, ""},
+		{"pattern", tabprep.Matching("s*"), []string{"species"}, nil, ""},
+		{"absent", tabprep.Names("weight"), nil, tabprep.ErrNoColumn,
+			`s.fit: column "weight": selected by name but not in the frame; it has ["dist_km" "species" "age"]`},
+		{"bad pattern", tabprep.Matching("["), nil, tabprep.ErrOption, `s.fit: bad column pattern "[": syntax error in pattern`},
+		{"no match", tabprep.Matching("zz*"), nil, tabprep.ErrNoColumn,
+			`s.fit: selection chooses nothing: no column matches zz*; the frame has ["dist_km" "species" "age"]`},
+	}
+	runResolve(t, tests, func(sel tabprep.Selection) ([]string, error) { return sel.ResolveAny("s.fit", f) })
 }
 
 func TestKindJSON(t *testing.T) {

@@ -28,14 +28,26 @@ func Matching(pattern string) Selection { return Selection{Pattern: pattern} }
 // order, all of kind k. It is an error if a named column is absent or of
 // another kind, if the pattern is malformed, or if nothing is chosen.
 func (s Selection) Resolve(op string, f *Frame, k Kind) ([]string, error) {
+	return s.resolve(op, f, &k)
+}
+
+// ResolveAny is [Selection.Resolve] for a step that takes columns of
+// either kind: the zero Selection chooses every column.
+func (s Selection) ResolveAny(op string, f *Frame) ([]string, error) {
+	return s.resolve(op, f, nil)
+}
+
+// resolve resolves s over the columns of kind *k, or of any kind if k is
+// nil.
+func (s Selection) resolve(op string, f *Frame, k *Kind) ([]string, error) {
 	want := make(map[string]bool, len(s.Names))
 	for _, n := range s.Names {
 		c, err := f.Column(n)
 		if err != nil {
 			return nil, Errorf(op, ErrNoColumn, n, "selected by name but not in the frame; it has %s", nameList(f.Names()))
 		}
-		if c.kind != k {
-			return nil, Errorf(op, ErrKind, n, "is %v; this step takes %v columns", c.kind, k)
+		if k != nil && c.kind != *k {
+			return nil, Errorf(op, ErrKind, n, "is %v; this step takes %v columns", c.kind, *k)
 		}
 		want[n] = true
 	}
@@ -47,7 +59,7 @@ func (s Selection) Resolve(op string, f *Frame, k Kind) ([]string, error) {
 	all := len(s.Names) == 0 && s.Pattern == ""
 	var out []string
 	for _, c := range f.cols {
-		if c.kind != k {
+		if k != nil && c.kind != *k {
 			continue
 		}
 		if all || want[c.name] {
@@ -61,9 +73,13 @@ func (s Selection) Resolve(op string, f *Frame, k Kind) ([]string, error) {
 		}
 	}
 	if len(out) == 0 {
-		what := "no " + k.String() + " column"
+		what := "column"
+		if k != nil {
+			what = k.String() + " column"
+		}
+		what = "no " + what
 		if s.Pattern != "" {
-			what = "no " + k.String() + " column matches " + s.Pattern
+			what += " matches " + s.Pattern
 		}
 		return nil, Errorf(op, ErrNoColumn, "", "selection chooses nothing: %s; the frame has %s", what, nameList(f.Names()))
 	}

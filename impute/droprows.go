@@ -45,7 +45,7 @@ func (s DropRows) Fit(train *tabprep.Frame) (DropParams, error) {
 	if err := tabprep.RequireTrain(op, train); err != nil {
 		return DropParams{}, err
 	}
-	names, err := pickColumns(op, train, s.Columns)
+	names, err := s.Columns.ResolveAny(op, train)
 	if err != nil {
 		return DropParams{}, err
 	}

@@ -214,7 +214,7 @@ func fitAnyStat(kind string, train *tabprep.Frame, sel tabprep.Selection, r Rule
 	if err := tabprep.RequireTrain(op, train); err != nil {
 		return FillParams{}, err
 	}
-	names, err := pickColumns(op, train, sel)
+	names, err := sel.ResolveAny(op, train)
 	if err != nil {
 		return FillParams{}, err
 	}

@@ -50,7 +50,7 @@ func (s Indicators) Fit(train *tabprep.Frame) (IndicatorParams, error) {
 	if err := tabprep.RequireTrain(op, train); err != nil {
 		return IndicatorParams{}, err
 	}
-	names, err := pickColumns(op, train, s.Columns)
+	names, err := s.Columns.ResolveAny(op, train)
 	if err != nil {
 		return IndicatorParams{}, err
 	}

@@ -1,43 +1,8 @@
 package impute
 
 import (
-	"path"
-
 	"github.com/tabprep/tabprep"
 )
-
-// pickColumns resolves sel against f over columns of any kind, in frame
-// order. The zero Selection chooses every column. A named column must
-// exist; a pattern must be well formed; something must be chosen.
-func pickColumns(op string, f *tabprep.Frame, sel tabprep.Selection) ([]string, error) {
-	want := make(map[string]bool, len(sel.Names))
-	for _, n := range sel.Names {
-		if !f.Has(n) {
-			return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, n, "selected by name but not in the frame; check the spelling against the frame's columns")
-		}
-		want[n] = true
-	}
-	if sel.Pattern != "" {
-		if _, err := path.Match(sel.Pattern, ""); err != nil {
-			return nil, tabprep.Errorf(op, tabprep.ErrOption, "", "bad column pattern %q: %v", sel.Pattern, err)
-		}
-	}
-	all := len(sel.Names) == 0 && sel.Pattern == ""
-	var out []string
-	for _, name := range f.Names() {
-		ok := all || want[name]
-		if !ok && sel.Pattern != "" {
-			ok, _ = path.Match(sel.Pattern, name)
-		}
-		if ok {
-			out = append(out, name)
-		}
-	}
-	if len(out) == 0 {
-		return nil, tabprep.Errorf(op, tabprep.ErrNoColumn, "", "selection chooses no column (pattern %q); name the columns or fix the pattern", sel.Pattern)
-	}
-	return out, nil
-}
 
 // numericColumns resolves sel over the numeric columns of f: the zero
 // Selection chooses every numeric column.

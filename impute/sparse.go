@@ -46,7 +46,7 @@ func (s DropSparse) Fit(train *tabprep.Frame) (SparseParams, error) {
 	if train.NumRows() == 0 {
 		return SparseParams{}, tabprep.Errorf(op, tabprep.ErrAllMissing, "", "no train rows to measure missing shares on")
 	}
-	names, err := pickColumns(op, train, s.Columns)
+	names, err := s.Columns.ResolveAny(op, train)
 	if err != nil {
 		return SparseParams{}, err
 	}

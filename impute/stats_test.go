@@ -247,5 +247,5 @@ func TestFillErrors(t *testing.T) {
 	_, err := impute.Constant{Columns: tabprep.Names("species")}.Fit(train)
 	require.EqualError(t, err, `impute.constant fit: column "species": constant rule without a non-empty Level; use impute.ConstantLevel("unknown")`)
 	_, err = impute.MostFrequent{Columns: tabprep.Names("weight")}.Fit(train)
-	require.EqualError(t, err, `impute.mostfrequent fit: column "weight": selected by name but not in the frame; check the spelling against the frame's columns`)
+	require.EqualError(t, err, `impute.mostfrequent fit: column "weight": selected by name but not in the frame; it has ["pet_age" "distance_km" "species"]`)
 }
