@@ -16,9 +16,11 @@ import (
 //
 // RowSource must record in l exactly what the step's RowKernel records, and
 // the code it writes must give the same bits as the kernel. Where the
-// kernel would return an error, the code gives up on the row with
-// [SourceWriter.GiveUp]; the generated function's caller then runs the
-// interpreted plan on that row, which reports the error.
+// kernel would return an error, or must work out at run time what the
+// source does not hold (parse a text no training row had, say), the code
+// gives up on the row with [SourceWriter.GiveUp]; the generated function's
+// caller then runs the interpreted plan on that row, which gives its result
+// or its error.
 type RowSource[P any] interface {
 	RowSource(p P, l *RowLayout, w *SourceWriter) error
 }
