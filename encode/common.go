@@ -288,6 +288,7 @@ type tableColumn struct {
 // levels. A cell without values is NaN in every output, or under BadError
 // an error wrapping [ErrBadCell] that says it is not what.
 type tableStep struct {
+	err     error // the step's parameters or options are unusable
 	op      string
 	sources []string
 	fields  [][]tabprep.Field
@@ -303,6 +304,9 @@ type tablePlan struct {
 }
 
 func (t tableStep) plans(l *tabprep.RowLayout) ([]tablePlan, error) {
+	if t.err != nil {
+		return nil, t.err
+	}
 	at, levels, to, err := arrange(t.op, l, t.sources, tabprep.Categorical, t.fields)
 	if err != nil {
 		return nil, err

@@ -263,29 +263,21 @@ func (s ParseNumber) Transform(p ParseNumberParams, data *tabprep.Frame) (*tabpr
 // rewritten number of over 32 bytes allocates its copy.
 // A bad cell is missing, or under BadError an error wrapping [ErrBadCell].
 func (s ParseNumber) RowKernel(p ParseNumberParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	t, err := s.table(p)
-	if err != nil {
-		return nil, err
-	}
-	return t.kernel(l)
+	return s.table(p).kernel(l)
 }
 
 // RowSource writes the row kernel as Go source, for generated plans: the
 // layout's levels become constants, and a text first met in the row is
 // left to the interpreted plan to parse.
 func (s ParseNumber) RowSource(p ParseNumberParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	t, err := s.table(p)
-	if err != nil {
-		return err
-	}
-	return t.source(l, w)
+	return s.table(p).source(l, w)
 }
 
-func (s ParseNumber) table(p ParseNumberParams) (tableStep, error) {
+func (s ParseNumber) table(p ParseNumberParams) tableStep {
 	const op = "encode.parsenumber row"
 	f, err := s.format(op)
 	if err != nil {
-		return tableStep{}, err
+		return tableStep{err: err}
 	}
 	sources := sourceNames(p.Columns, func(c ParseReport) string { return c.Name })
 	fields := numericFields(sources, func(s string) []string { return []string{s} })
@@ -296,7 +288,7 @@ func (s ParseNumber) table(p ParseNumberParams) (tableStep, error) {
 	}
 	return tableStep{op: op, sources: sources, fields: fields, bad: s.Bad, what: "a number in the chosen format", build: func(_ int, levels []string) tableColumn {
 		return parseTable(levels, 1, f.parseInto, unseen)
-	}}, nil
+	}}
 }
 
 var (

@@ -425,28 +425,20 @@ var _ tabprep.Supervised = Target{}
 // target column is not read: a pipeline keeps it out of the row layout
 // (see [tabprep.Supervised]).
 func (s Target) RowKernel(p TargetParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	t, err := s.table(p)
-	if err != nil {
-		return nil, err
-	}
-	return t.kernel(l)
+	return s.table(p).kernel(l)
 }
 
 // RowSource writes the row kernel as Go source, for generated plans.
 func (s Target) RowSource(p TargetParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	t, err := s.table(p)
-	if err != nil {
-		return err
-	}
-	return t.source(l, w)
+	return s.table(p).source(l, w)
 }
 
-func (s Target) table(p TargetParams) (tableStep, error) {
+func (s Target) table(p TargetParams) tableStep {
 	const op = "encode.target row"
 	w := len(p.Prior)
 	for _, tc := range p.Columns {
 		if len(tc.Values) != len(tc.Levels)*w || len(tc.Missing) != w {
-			return tableStep{}, tabprep.Errorf(op, tabprep.ErrSchema, tc.Name, "parameters hold %d values for %d levels and %d outputs; fit again", len(tc.Values), len(tc.Levels), w)
+			return tableStep{err: tabprep.Errorf(op, tabprep.ErrSchema, tc.Name, "parameters hold %d values for %d levels and %d outputs; fit again", len(tc.Values), len(tc.Levels), w)}
 		}
 	}
 	sources := sourceNames(p.Columns, func(c TargetColumn) string { return c.Name })
@@ -461,7 +453,7 @@ func (s Target) table(p TargetParams) (tableStep, error) {
 			return p.Prior
 		}
 		return constTable(levels, w, value, tc.Missing, p.Prior)
-	}}, nil
+	}}
 }
 
 var (

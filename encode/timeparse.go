@@ -218,29 +218,21 @@ func (s ParseTime) Transform(p ParseTimeParams, data *tabprep.Frame) (*tabprep.F
 // that does not parse (its error value). A bad cell is missing, or under
 // BadError an error wrapping [ErrBadCell].
 func (s ParseTime) RowKernel(p ParseTimeParams, l *tabprep.RowLayout) (tabprep.RowFunc, error) {
-	t, err := s.table(p)
-	if err != nil {
-		return nil, err
-	}
-	return t.kernel(l)
+	return s.table(p).kernel(l)
 }
 
 // RowSource writes the row kernel as Go source, for generated plans: the
 // layout's levels become constants, and a text first met in the row is
 // left to the interpreted plan to parse.
 func (s ParseTime) RowSource(p ParseTimeParams, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	t, err := s.table(p)
-	if err != nil {
-		return err
-	}
-	return t.source(l, w)
+	return s.table(p).source(l, w)
 }
 
-func (s ParseTime) table(p ParseTimeParams) (tableStep, error) {
+func (s ParseTime) table(p ParseTimeParams) tableStep {
 	const op = "encode.parsetime row"
 	loc, err := s.setup(op)
 	if err != nil {
-		return tableStep{}, err
+		return tableStep{err: err}
 	}
 	parts := p.parts()
 	sources := sourceNames(p.Columns, func(c ParseReport) string { return c.Name })
@@ -257,7 +249,7 @@ func (s ParseTime) table(p ParseTimeParams) (tableStep, error) {
 	parse := s.parser(loc, parts)
 	return tableStep{op: op, sources: sources, fields: numericFields(sources, p.names), bad: s.Bad, what: "a time in layout " + s.Layout, build: func(_ int, levels []string) tableColumn {
 		return parseTable(levels, len(parts), parse, unseen)
-	}}, nil
+	}}
 }
 
 var (
