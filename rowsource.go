@@ -2,6 +2,7 @@ package tabprep
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"strconv"
@@ -32,20 +33,22 @@ type RowSource[P any] interface {
 // writes the variables of the slots its layout gives it.
 type SourceWriter struct {
 	b       strings.Builder
-	used    map[string]bool
+	used    map[string]map[int]bool // by variable prefix, the slots referenced
 	imports map[string]bool
 	data    [][]float64
 }
 
 // NewSourceWriter returns an empty writer.
 func NewSourceWriter() *SourceWriter {
-	return &SourceWriter{used: map[string]bool{}, imports: map[string]bool{}}
+	return &SourceWriter{used: map[string]map[int]bool{}, imports: map[string]bool{}}
 }
 
 func (w *SourceWriter) local(prefix string, slot int) string {
-	name := prefix + strconv.Itoa(slot)
-	w.used[name] = true
-	return name
+	if w.used[prefix] == nil {
+		w.used[prefix] = map[int]bool{}
+	}
+	w.used[prefix][slot] = true
+	return prefix + strconv.Itoa(slot)
 }
 
 // Num returns the variable holding the number of slot.
@@ -61,17 +64,9 @@ func (w *SourceWriter) Code(slot int) string { return w.local("c", slot) }
 // Used returns the variables referenced so far, for the generator to
 // declare: those starting with prefix ("n", "s" or "c"), by slot.
 func (w *SourceWriter) Used(prefix string) []string {
-	var slots []int
-	for n := range w.used {
-		if rest, ok := strings.CutPrefix(n, prefix); ok {
-			k, _ := strconv.Atoi(rest)
-			slots = append(slots, k)
-		}
-	}
-	slices.Sort(slots)
-	names := make([]string, len(slots))
-	for i, k := range slots {
-		names[i] = prefix + strconv.Itoa(k)
+	var names []string
+	for _, k := range slices.Sorted(maps.Keys(w.used[prefix])) {
+		names = append(names, prefix+strconv.Itoa(k))
 	}
 	return names
 }
@@ -116,14 +111,7 @@ func (w *SourceWriter) Import(path string) string {
 }
 
 // Imports returns the import paths recorded by Import, sorted.
-func (w *SourceWriter) Imports() []string {
-	paths := make([]string, 0, len(w.imports))
-	for p := range w.imports {
-		paths = append(paths, p)
-	}
-	slices.Sort(paths)
-	return paths
-}
+func (w *SourceWriter) Imports() []string { return slices.Sorted(maps.Keys(w.imports)) }
 
 // Data records a table of constants that the generated file declares once,
 // as a package-level array, and returns the placeholder that stands for the

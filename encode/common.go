@@ -406,6 +406,14 @@ func (t tableStep) source(l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
 	return nil
 }
 
+// zeroSource writes the statements that set the n numeric slots from slot
+// to to 0, for a step's source form.
+func zeroSource(w *tabprep.SourceWriter, to, n int) {
+	for j := range n {
+		w.Line("%s = 0", w.Num(to+j))
+	}
+}
+
 // numericFields returns, per source, numeric output fields named by names.
 func numericFields(sources []string, names func(source string) []string) [][]tabprep.Field {
 	fields := make([][]tabprep.Field, len(sources))

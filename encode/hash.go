@@ -189,9 +189,7 @@ func (s Hash) RowSource(p HashParams, l *tabprep.RowLayout, w *tabprep.SourceWri
 		return err
 	}
 	for _, pl := range plans {
-		for j := range p.Buckets {
-			w.Line("%s = 0", w.Num(pl.to+j))
-		}
+		zeroSource(w, pl.to, p.Buckets)
 		w.Line("switch %s {", w.Code(pl.from))
 		for k, b := range pl.bucket {
 			w.Line("case %d:", k)

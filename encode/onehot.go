@@ -330,9 +330,7 @@ func (s OneHot) RowSource(p OneHotParams, l *tabprep.RowLayout, w *tabprep.Sourc
 		return err
 	}
 	for _, pl := range plans {
-		for k := range pl.width {
-			w.Line("%s = 0", w.Num(pl.to+k))
-		}
+		zeroSource(w, pl.to, pl.width)
 		set := func(j int32) {
 			switch {
 			case j == -2:

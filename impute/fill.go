@@ -3,7 +3,6 @@ package impute
 import (
 	"math"
 	"slices"
-	"strings"
 
 	"github.com/tabprep/tabprep"
 	"github.com/tabprep/tabprep/internal/par"
@@ -130,23 +129,6 @@ func fillSource(op string, p FillParams, l *tabprep.RowLayout, w *tabprep.Source
 		}
 		w.Line("}")
 	}
-	return nil
-}
-
-// gapsGiveUp writes the source that leaves a row with a gap in any of the
-// numeric columns to the interpreted plan.
-func gapsGiveUp(op string, columns []string, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
-	slots, err := numericPositions(op, l, columns)
-	if err != nil || len(slots) == 0 {
-		return err
-	}
-	var cond []string
-	for _, k := range slots {
-		cond = append(cond, w.Num(k)+" != "+w.Num(k))
-	}
-	w.Line("if %s {", strings.Join(cond, " || "))
-	w.GiveUp()
-	w.Line("}")
 	return nil
 }
 

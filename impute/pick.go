@@ -1,6 +1,8 @@
 package impute
 
 import (
+	"strings"
+
 	"github.com/tabprep/tabprep"
 )
 
@@ -56,4 +58,21 @@ func numericPositions(op string, l *tabprep.RowLayout, names []string) ([]int, e
 		slots[j] = k
 	}
 	return slots, nil
+}
+
+// gapsGiveUp writes the source that leaves a row with a gap in any of the
+// numeric columns to the interpreted plan.
+func gapsGiveUp(op string, columns []string, l *tabprep.RowLayout, w *tabprep.SourceWriter) error {
+	slots, err := numericPositions(op, l, columns)
+	if err != nil || len(slots) == 0 {
+		return err
+	}
+	var cond []string
+	for _, k := range slots {
+		cond = append(cond, w.Num(k)+" != "+w.Num(k))
+	}
+	w.Line("if %s {", strings.Join(cond, " || "))
+	w.GiveUp()
+	w.Line("}")
+	return nil
 }

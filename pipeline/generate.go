@@ -102,7 +102,7 @@ var _ = math.NaN // the source may need it for NaN or infinite constants
 	// placeholders.
 	var names []string
 	for i := range sw.DataTables() {
-		names = append(names, tabprep.DataPlaceholder(i), fmt.Sprintf("%sData%d", strings.ToLower(opt.Name[:1])+opt.Name[1:], i))
+		names = append(names, tabprep.DataPlaceholder(i), fmt.Sprintf("data%s%d", opt.Name, i))
 	}
 	b.WriteString("func apply" + opt.Name)
 	b.WriteString(strings.NewReplacer(names...).Replace(body))

@@ -195,12 +195,18 @@ func (p *Plan) run(regs, src []tabprep.Cell) error {
 // ApplyFloats is [Plan.Apply] for a pipeline whose output columns are all
 // numeric, as a model's input is: it writes the output values into dst.
 func (p *Plan) ApplyFloats(dst []float64, src []tabprep.Cell) error {
-	if p.gen != nil && p.gen(dst, src) {
+	if p.generated(dst, src) {
 		return nil
 	}
 	s := p.scratch.Get().(*rowScratch)
 	defer p.scratch.Put(s)
 	return p.applyFloats(s.regs, dst, src)
+}
+
+// generated runs the generated code of CompileWith on a row and reports
+// whether it finished it; false means the interpreted plan must run.
+func (p *Plan) generated(dst []float64, src []tabprep.Cell) bool {
+	return p.gen != nil && p.gen(dst, src)
 }
 
 func (p *Plan) applyFloats(regs []tabprep.Cell, dst []float64, src []tabprep.Cell) error {
@@ -246,7 +252,7 @@ func (r *Runner) Apply(dst, src []tabprep.Cell) error {
 
 // ApplyFloats is [Plan.ApplyFloats] on r's own registers.
 func (r *Runner) ApplyFloats(dst []float64, src []tabprep.Cell) error {
-	if r.plan.gen != nil && r.plan.gen(dst, src) {
+	if r.plan.generated(dst, src) {
 		return nil
 	}
 	return r.plan.applyFloats(r.regs, dst, src)
@@ -291,7 +297,7 @@ func (p *Plan) TransformInto(dst []float64, data *tabprep.Frame) error {
 			}
 		}
 		out := dst[r*w : (r+1)*w]
-		if p.gen != nil && p.gen(out, src) {
+		if p.generated(out, src) {
 			continue
 		}
 		if err := p.run(s.regs, src); err != nil {

@@ -156,7 +156,7 @@ func generated(f *pipeline.Fitted) (*pipeline.Plan, error) { return f.CompileWit
 
 // interpreted compiles f without generated source, as a service that loads
 // state files it was not built with does.
-func interpreted(f *pipeline.Fitted) (*pipeline.Plan, error) { return f.Compile() }
+var interpreted = (*pipeline.Fitted).Compile
 
 // benchRows calls score on the demo rows in turn, one row per op.
 func benchRows(b *testing.B, rows [][]tabprep.Cell, score func(row []tabprep.Cell) error) {

@@ -352,13 +352,10 @@ func (m *mapper) rowSource(l *tabprep.RowLayout, w *tabprep.SourceWriter) error 
 	for j, k := range slots {
 		a := m.linear[j]
 		n := w.Num(k)
-		switch {
-		case a.clip || a.divide:
-			a.source(w, n, n)
-		case a.offset == 0:
+		if a.clip || a.divide || a.offset != 0 {
+			a.source(w, n, n) // a.at, which the kernel's other forms agree with
+		} else {
 			w.Line("%s = (%s - %s) * %s", n, n, w.Float(a.center), w.Float(1/a.scale))
-		default:
-			w.Line("%s = (%s-%s)*%s + %s", n, n, w.Float(a.center), w.Float(1/a.scale), w.Float(a.offset))
 		}
 	}
 	return nil
