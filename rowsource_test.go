@@ -33,8 +33,10 @@ func TestSourceWriterFloat(t *testing.T) {
 }
 
 // TestSourceWriterFloatExact is the property that every finite float64
-// written as a literal reads back with the same bits (Go converts an
-// untyped constant to the nearest float64, as strconv.ParseFloat does).
+// written as a literal reads back with the same bits. It relies on the Go
+// specification (Constants, Conversions: a constant converts to the nearest
+// float64, rounding to even) matching strconv.ParseFloat, which is
+// correctly rounded too; from memory, not looked up.
 func TestSourceWriterFloatExact(t *testing.T) {
 	w := tabprep.NewSourceWriter()
 	rng := rand.New(rand.NewPCG(11, 12))
